@@ -10,7 +10,6 @@ import {
   type Signal,
   type SignalKind,
   type Timescale,
-  Logic,
   wordsFor,
 } from './dump';
 
@@ -105,18 +104,21 @@ export class DumpBuilder {
     this.endTick = tick;
   }
 
-  private slot(index: number): number {
-    const g = this.growing[index];
+  private grow(g: Growing): void {
+    const sig = g.sig;
+    const cap = grownCapacity(g.cap, sig.count + 1);
+    sig.timeIndex = copyInto(sig.timeIndex, (n) => new Uint32Array(n), cap);
+    if (sig.kind === 'logic' || sig.kind === 'event') sig.logic = copyInto(sig.logic, (n) => new Uint8Array(n), cap);
+    else if (sig.kind === 'vector') sig.planes = copyInto(sig.planes, (n) => new Uint32Array(n), cap * 2 * g.words);
+    else if (sig.kind === 'real') sig.reals = copyInto(sig.reals, (n) => new Float64Array(n), cap);
+    g.cap = cap;
+  }
+
+  /** Claims the next change slot of a signal at the current time; returns its index. */
+  private slot(g: Growing): number {
     const sig = g.sig;
     const i = sig.count;
-    if (i === g.cap) {
-      const cap = grownCapacity(g.cap, i + 1);
-      sig.timeIndex = copyInto(sig.timeIndex, (n) => new Uint32Array(n), cap);
-      if (sig.kind === 'logic' || sig.kind === 'event') sig.logic = copyInto(sig.logic, (n) => new Uint8Array(n), cap);
-      else if (sig.kind === 'vector') sig.planes = copyInto(sig.planes, (n) => new Uint32Array(n), cap * 2 * g.words);
-      else if (sig.kind === 'real') sig.reals = copyInto(sig.reals, (n) => new Float64Array(n), cap);
-      g.cap = cap;
-    }
+    if (i === g.cap) this.grow(g);
     if (this.current < 0) this.setTime(0);
     sig.timeIndex[i] = this.current;
     sig.count = i + 1;
@@ -125,15 +127,23 @@ export class DumpBuilder {
 
   /** `counted` is false for values the parser adds itself (x at $dumpoff). */
   pushLogic(index: number, code: number, counted = true): void {
-    const i = this.slot(index);
-    this.growing[index].sig.logic[i] = code;
-    if (counted) this.countWritten(index);
+    const g = this.growing[index];
+    const i = this.slot(g);
+    g.sig.logic[i] = code;
+    if (counted) {
+      g.sig.written++;
+      this.changes++;
+    }
   }
 
   pushReal(index: number, value: number, counted = true): void {
-    const i = this.slot(index);
-    this.growing[index].sig.reals[i] = value;
-    if (counted) this.countWritten(index);
+    const g = this.growing[index];
+    const i = this.slot(g);
+    g.sig.reals[i] = value;
+    if (counted) {
+      g.sig.written++;
+      this.changes++;
+    }
   }
 
   /**
@@ -141,19 +151,41 @@ export class DumpBuilder {
    * `text` is set only for values holding states beyond 0/1/x/z, or for string signals.
    */
   pushVector(index: number, value: Uint32Array, unknown: Uint32Array, text: string | null, counted = true): void {
-    const i = this.slot(index);
     const g = this.growing[index];
-    const base = i * 2 * g.words;
-    g.sig.planes.set(value.subarray(0, g.words), base);
-    g.sig.planes.set(unknown.subarray(0, g.words), base + g.words);
+    const i = this.slot(g);
+    const words = g.words;
+    const planes = g.sig.planes;
+    const base = i * 2 * words;
+    for (let w = 0; w < words; w++) {
+      planes[base + w] = value[w];
+      planes[base + words + w] = unknown[w];
+    }
     if (text !== null) g.sig.texts.set(i, text);
-    if (counted) this.countWritten(index);
+    if (counted) {
+      g.sig.written++;
+      this.changes++;
+    }
+  }
+
+  /** Vector of at most 32 bits, given as its two plane words. */
+  pushVectorWord(index: number, value: number, unknown: number, text: string | null): void {
+    const g = this.growing[index];
+    const i = this.slot(g);
+    g.sig.planes[2 * i] = value;
+    g.sig.planes[2 * i + 1] = unknown;
+    if (text !== null) g.sig.texts.set(i, text);
+    g.sig.written++;
+    this.changes++;
   }
 
   pushText(index: number, text: string, counted = true): void {
-    const i = this.slot(index);
-    this.growing[index].sig.texts.set(i, text);
-    if (counted) this.countWritten(index);
+    const g = this.growing[index];
+    const i = this.slot(g);
+    g.sig.texts.set(i, text);
+    if (counted) {
+      g.sig.written++;
+      this.changes++;
+    }
   }
 
   /** Vector of all-x (for $dumpoff). */
@@ -162,21 +194,6 @@ export class DumpBuilder {
     const zeros = new Uint32Array(g.words);
     const ones = new Uint32Array(g.words).fill(0xffffffff);
     this.pushVector(index, zeros, ones, null, counted);
-  }
-
-  /** Pushes x (or NaN for reals) onto every signal: the meaning of $dumpoff. */
-  pushAllUnknown(): void {
-    for (let k = 0; k < this.growing.length; k++) {
-      const kind = this.growing[k].sig.kind;
-      if (kind === 'logic' || kind === 'event') this.pushLogic(k, Logic.X, false);
-      else if (kind === 'vector') this.pushVectorX(k);
-      else if (kind === 'real') this.pushReal(k, Number.NaN, false);
-    }
-  }
-
-  private countWritten(index: number): void {
-    this.growing[index].sig.written++;
-    this.changes++;
   }
 
   /** Removes every change at the current timestamp and the timestamp itself (used when a dump is cut off mid-step). */

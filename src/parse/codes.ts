@@ -1,0 +1,77 @@
+// Identifier code → signal index, looked up straight from the bytes of a value change.
+// Codes are 1+ printable ASCII characters 33..126 (IEEE 1364-2005 §18.2.1). Short codes
+// (the common case) are turned into a number without making a string: one- and two-character
+// codes index flat tables, three to seven characters a Map keyed by a base-95 number whose
+// digits are 1..94 (so lengths never collide), longer ones a Map keyed by the text. Maps,
+// not objects, so codes like `__proto__` are ordinary keys.
+
+const SPAN = 94;
+const MAX_NUMERIC_LENGTH = 7;
+
+export class CodeTable {
+  private one = new Int32Array(SPAN).fill(-1);
+  private two = new Int32Array(SPAN * SPAN).fill(-1);
+  private numeric = new Map<number, number>();
+  private text = new Map<string, number>();
+
+  /** Signal index for code bytes [s, e), or -1 when unknown or not printable ASCII. */
+  lookup(buf: Uint8Array, s: number, e: number): number {
+    const n = e - s;
+    if (n === 1) {
+      const c = buf[s] - 33;
+      return c >= 0 && c < SPAN ? this.one[c] : -1;
+    }
+    if (n === 2) {
+      const a = buf[s] - 33;
+      const b = buf[s + 1] - 33;
+      return a >= 0 && a < SPAN && b >= 0 && b < SPAN ? this.two[a * SPAN + b] : -1;
+    }
+    if (n <= MAX_NUMERIC_LENGTH && n > 0) {
+      let key = 0;
+      for (let i = s; i < e; i++) {
+        const c = buf[i] - 32;
+        if (c < 1 || c > SPAN) return -1;
+        key = key * 95 + c;
+      }
+      return this.numeric.get(key) ?? -1;
+    }
+    let str = '';
+    for (let i = s; i < e; i++) {
+      const c = buf[i];
+      if (c < 33 || c > 126) return -1;
+      str += String.fromCharCode(c);
+    }
+    return this.text.get(str) ?? -1;
+  }
+
+  /** Index for a code string (from a $var line), or -1. */
+  get(code: string): number {
+    const bytes = asciiBytes(code);
+    return bytes ? this.lookup(bytes, 0, bytes.length) : -1;
+  }
+
+  /** Returns false when the code has characters outside 33..126. */
+  set(code: string, index: number): boolean {
+    const bytes = asciiBytes(code);
+    if (!bytes || bytes.length === 0) return false;
+    const n = bytes.length;
+    if (n === 1) this.one[bytes[0] - 33] = index;
+    else if (n === 2) this.two[(bytes[0] - 33) * SPAN + (bytes[1] - 33)] = index;
+    else if (n <= MAX_NUMERIC_LENGTH) {
+      let key = 0;
+      for (const b of bytes) key = key * 95 + (b - 32);
+      this.numeric.set(key, index);
+    } else this.text.set(code, index);
+    return true;
+  }
+}
+
+function asciiBytes(code: string): Uint8Array | null {
+  const out = new Uint8Array(code.length);
+  for (let i = 0; i < code.length; i++) {
+    const c = code.charCodeAt(i);
+    if (c < 33 || c > 126) return null;
+    out[i] = c;
+  }
+  return out;
+}
