@@ -384,7 +384,7 @@ export class VcdParser {
         this.open(BodyBlock.DumpOff);
         if (this.dumpOffStart < 0) this.dumpOffStart = this.b.currentTick;
         this.dumpOffMarks = new Uint32Array(this.b.signalCount);
-        for (let k = 0; k < this.b.signalCount; k++) this.dumpOffMarks[k] = this.b.signal(k).count;
+        for (let k = 0; k < this.b.signalCount; k++) this.dumpOffMarks[k] = this.b.countOf(k);
         return;
       case '$comment':
         return this.open(BodyBlock.Comment);
@@ -408,7 +408,7 @@ export class VcdParser {
     const marks = this.dumpOffMarks;
     if (!marks) return;
     for (let k = 0; k < marks.length; k++) {
-      if (this.b.signal(k).count !== marks[k]) continue;
+      if (this.b.countOf(k) !== marks[k]) continue;
       const kind = this.b.signal(k).kind;
       if (kind === 'logic' || kind === 'event') this.b.pushLogic(k, Logic.X, false);
       else if (kind === 'vector') this.b.pushVectorX(k);
