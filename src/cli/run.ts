@@ -10,6 +10,11 @@ export const EXIT_VIOLATION = 1;
 export const EXIT_BAD_INPUT = 2;
 
 export function runCommand(body: () => Promise<number>): void {
+  // A reader that stops early (`midrail info x.vcd | head`) closes the pipe; that is not an error.
+  process.stdout.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code === 'EPIPE') process.exit(process.exitCode ?? EXIT_OK);
+    throw err;
+  });
   body().then(
     (code) => {
       process.exitCode = code;
