@@ -1,33 +1,39 @@
 // Grows a Dump change by change. The parser feeds it; tests use it to build small dumps by hand.
-// Each signal fills fixed blocks (64 entries, doubling up to 64 Ki) that are never copied while
-// parsing; finish() joins them once into exact-size arrays, one signal at a time. So the peak stays
-// near the final size (4-byte time index + 1-byte code per 1-bit change) instead of the 1.5–2×
-// of doubling arrays, and no change is copied more than once.
+//
+// While parsing, every change is appended to one change log in file order: the signal index
+// (16 bits while there are fewer than 65,536 signals, else 32) and, for 1-bit signals, the state
+// code; vector planes and reals go to logs of their own. Appending is sequential, so it costs
+// about what reading the bytes costs, whatever the number of signals. finish() counts are already
+// known, so it allocates each signal's arrays at their exact size and scatters the log into them
+// in one pass. The peak is the log (3 bytes per 1-bit change) plus the final arrays (5 bytes).
 
 import type { Dump, DumpWarning, Net, Scope, Signal, SignalKind, Timescale } from './dump';
 import { wordsFor } from './dump';
 
-const BLOCK_MIN = 64;
-const BLOCK_MAX = 1 << 16;
+const SLAB = 1 << 20;
+const FIRST_SLAB = 1 << 12;
 const EMPTY_U8 = new Uint8Array(0);
+const EMPTY_U16 = new Uint16Array(0);
 const EMPTY_U32 = new Uint32Array(0);
 const EMPTY_F64 = new Float64Array(0);
 
-function grownInt32(a: Int32Array<ArrayBuffer>, need: number): Int32Array<ArrayBuffer> {
-  if (need <= a.length) return a;
-  const b = new Int32Array(Math.max(need, a.length * 2));
-  b.set(a);
-  return b;
+const KIND_LOGIC = 0;
+const KIND_VECTOR = 1;
+const KIND_REAL = 2;
+const KIND_TEXT = 3;
+
+function kindCode(kind: SignalKind): number {
+  if (kind === 'vector') return KIND_VECTOR;
+  if (kind === 'real') return KIND_REAL;
+  if (kind === 'string') return KIND_TEXT;
+  return KIND_LOGIC;
 }
 
-function joinBlocks<T extends Uint8Array | Uint32Array | Float64Array>(blocks: T[], last: T, lastFill: number, out: T): T {
-  let at = 0;
-  for (const b of blocks) {
-    out.set(b, at);
-    at += b.length;
-  }
-  out.set(last.subarray(0, lastFill), at);
-  return out;
+function grown<T extends Int32Array | Uint8Array | Float64Array | Uint32Array>(a: T, need: number, make: (n: number) => T): T {
+  if (need <= a.length) return a;
+  const b = make(Math.max(need, a.length * 2));
+  b.set(a);
+  return b;
 }
 
 export class DumpBuilder {
@@ -36,25 +42,39 @@ export class DumpBuilder {
   readonly warnings: DumpWarning[] = [];
   readonly dumpOff: Array<[number, number]> = [];
   private sigs: Signal[] = [];
-  private words: number[] = [];
-  // Per signal, hot while parsing: current block fill and capacity, entries in full blocks.
-  private fill = new Int32Array(64);
-  private cap = new Int32Array(64);
-  private done = new Int32Array(64);
-  private written = new Int32Array(64);
-  private curT: Uint32Array[] = [];
-  private curL: Uint8Array[] = [];
-  private curP: Uint32Array[] = [];
-  private curR: Float64Array[] = [];
-  // Full blocks per signal.
-  private fullT: Uint32Array[][] = [];
-  private fullV: Array<Array<Uint8Array | Uint32Array | Float64Array>> = [];
+  private kinds = new Uint8Array(64);
+  private words = new Int32Array(64);
+  private counts = new Int32Array(64);
+  private uncounted = new Int32Array(64);
+
+  // Change log: current slab (hot) and the full ones. A slab is 16-bit when it was started while
+  // fewer than 65,536 signals existed, so every index it holds fits.
+  private logFill = 0;
+  private logLen = 0;
+  private wideSlab = false;
+  private sig16: Uint16Array = EMPTY_U16;
+  private sig32: Uint32Array = EMPTY_U32;
+  private codes: Uint8Array = EMPTY_U8;
+  private fullSigs: Array<Uint16Array | Uint32Array> = [];
+  private fullCodes: Uint8Array[] = [];
+  // Vector planes and reals, in log order.
+  private planeFill = 0;
+  private planeSlab: Uint32Array = EMPTY_U32;
+  private planeFull: Uint32Array[] = [];
+  private planeUsed: number[] = [];
+  private realFill = 0;
+  private realSlab: Float64Array = EMPTY_F64;
+  private realFull: Float64Array[] = [];
+  /** Texts (strings, vectors with states beyond 0/1/x/z) by log position. */
+  private texts = new Map<number, string>();
+
   private times = new Float64Array(1024);
+  /** Log position where each timestamp's changes begin. */
+  private stepStart = new Float64Array(1024);
   private timeCount = 0;
   /** Index of the current timestamp in `times`, -1 before the first `#`. */
   private current = -1;
   endTick = 0;
-  changes = 0;
   date = '';
   version = '';
   timescale: Timescale = { magnitude: 1, unit: 's', seconds: 1 };
@@ -69,8 +89,11 @@ export class DumpBuilder {
     return this.current < 0 ? 0 : this.times[this.current];
   }
 
-  get timeStamps(): number {
-    return this.timeCount;
+  /** Changes written in the file so far (each once, whatever the aliases). */
+  get changes(): number {
+    let off = 0;
+    for (let k = 0; k < this.sigs.length; k++) off += this.uncounted[k];
+    return this.logLen - off;
   }
 
   addScope(name: string, kind: string, parent: number): number {
@@ -93,17 +116,12 @@ export class DumpBuilder {
       texts: new Map(),
       written: 0,
     });
-    this.words.push(kind === 'vector' ? wordsFor(width) : 0);
-    this.fill = grownInt32(this.fill, k + 1);
-    this.cap = grownInt32(this.cap, k + 1);
-    this.done = grownInt32(this.done, k + 1);
-    this.written = grownInt32(this.written, k + 1);
-    this.curT.push(EMPTY_U32);
-    this.curL.push(EMPTY_U8);
-    this.curP.push(EMPTY_U32);
-    this.curR.push(EMPTY_F64);
-    this.fullT.push([]);
-    this.fullV.push([]);
+    this.kinds = grown(this.kinds, k + 1, (n) => new Uint8Array(n));
+    this.words = grown(this.words, k + 1, (n) => new Int32Array(n));
+    this.counts = grown(this.counts, k + 1, (n) => new Int32Array(n));
+    this.uncounted = grown(this.uncounted, k + 1, (n) => new Int32Array(n));
+    this.kinds[k] = kindCode(kind);
+    this.words[k] = kind === 'vector' ? wordsFor(width) : 0;
     return k;
   }
 
@@ -114,7 +132,7 @@ export class DumpBuilder {
 
   /** Changes stored so far for a signal. */
   countOf(index: number): number {
-    return this.done[index] + this.fill[index];
+    return this.counts[index];
   }
 
   addNet(net: Net): void {
@@ -125,67 +143,95 @@ export class DumpBuilder {
   setTime(tick: number): void {
     if (this.current >= 0 && this.times[this.current] === tick) return;
     if (this.timeCount === this.times.length) {
-      const grown = new Float64Array(this.times.length * 2);
-      grown.set(this.times);
-      this.times = grown;
+      this.times = grown(this.times, this.timeCount + 1, (n) => new Float64Array(n));
+      this.stepStart = grown(this.stepStart, this.timeCount + 1, (n) => new Float64Array(n));
     }
     this.times[this.timeCount] = tick;
+    this.stepStart[this.timeCount] = this.logLen;
     this.current = this.timeCount++;
     this.endTick = tick;
   }
 
-  /** Retires a signal's full block and starts the next; returns the new fill (0). */
-  private nextBlock(k: number): number {
-    const old = this.cap[k];
-    const kind = this.sigs[k].kind;
-    if (old > 0) {
-      this.fullT[k].push(this.curT[k]);
-      this.fullV[k].push(kind === 'real' ? this.curR[k] : kind === 'vector' ? this.curP[k] : this.curL[k]);
-      this.done[k] += old;
+  private nextSlab(): number {
+    const len = this.codes.length;
+    if (len > 0 && len < SLAB) {
+      // The first slab starts small (small dumps stay small) and doubles until full size.
+      const size = Math.min(SLAB, len * 4);
+      const codes = new Uint8Array(size);
+      codes.set(this.codes);
+      this.codes = codes;
+      if (this.wideSlab) this.sig32 = grown(this.sig32, size, (n) => new Uint32Array(n));
+      else {
+        const sigs = new Uint16Array(size);
+        sigs.set(this.sig16);
+        this.sig16 = sigs;
+      }
+      return len;
     }
-    // Wide vectors get fewer entries per block so a block stays under about 1 MiB.
-    const limit = kind === 'vector' ? Math.max(1, Math.floor((1 << 18) / (2 * this.words[k]))) : BLOCK_MAX;
-    const size = Math.min(limit, BLOCK_MAX, Math.max(BLOCK_MIN, old * 2));
-    this.curT[k] = new Uint32Array(size);
-    if (kind === 'real') this.curR[k] = new Float64Array(size);
-    else if (kind === 'vector') this.curP[k] = new Uint32Array(size * 2 * this.words[k]);
-    else this.curL[k] = new Uint8Array(size);
-    this.cap[k] = size;
-    this.fill[k] = 0;
+    if (len > 0) {
+      this.fullSigs.push(this.wideSlab ? this.sig32 : this.sig16);
+      this.fullCodes.push(this.codes);
+    }
+    const size = len === 0 ? FIRST_SLAB : SLAB;
+    this.wideSlab = this.sigs.length > 0xffff;
+    if (this.wideSlab) this.sig32 = new Uint32Array(size);
+    else this.sig16 = new Uint16Array(size);
+    this.codes = new Uint8Array(size);
+    this.logFill = 0;
     return 0;
   }
 
-  /** Claims the next change slot of a signal at the current time; returns its place in the current block. */
-  private slot(k: number): number {
-    let f = this.fill[k];
-    if (f === this.cap[k]) f = this.nextBlock(k);
+  /** Appends a log entry for signal k; returns its place in the current slab. */
+  private append(k: number, counted: boolean): number {
     if (this.current < 0) this.setTime(0);
-    this.curT[k][f] = this.current;
-    this.fill[k] = f + 1;
+    let f = this.logFill;
+    if (f === this.codes.length) f = this.nextSlab();
+    if (this.wideSlab) this.sig32[f] = k;
+    else this.sig16[f] = k;
+    this.logFill = f + 1;
+    this.logLen++;
+    this.counts[k]++;
+    if (!counted) this.uncounted[k]++;
     return f;
   }
 
   /** `counted` is false for values the parser adds itself (x at $dumpoff). */
   pushLogic(index: number, code: number, counted = true): void {
-    let f = this.fill[index];
-    if (f === this.cap[index]) f = this.nextBlock(index);
-    if (this.current < 0) this.setTime(0);
-    this.curT[index][f] = this.current;
-    this.curL[index][f] = code;
-    this.fill[index] = f + 1;
-    if (counted) {
-      this.written[index]++;
-      this.changes++;
-    }
+    const f = this.append(index, counted);
+    this.codes[f] = code;
   }
 
   pushReal(index: number, value: number, counted = true): void {
-    const f = this.slot(index);
-    this.curR[index][f] = value;
-    if (counted) {
-      this.written[index]++;
-      this.changes++;
+    this.append(index, counted);
+    if (this.realFill === this.realSlab.length) {
+      const len = this.realSlab.length;
+      if (len > 0 && len < SLAB >> 2 && this.realFull.length === 0) {
+        this.realSlab = grown(this.realSlab, Math.min(SLAB >> 2, len * 4), (n) => new Float64Array(n));
+      } else {
+        if (len > 0) this.realFull.push(this.realSlab);
+        this.realSlab = new Float64Array(len === 0 ? FIRST_SLAB : SLAB >> 2);
+        this.realFill = 0;
+      }
     }
+    this.realSlab[this.realFill++] = value;
+  }
+
+  /** Room for n plane words in the current plane slab (a change never straddles two slabs). */
+  private planeRoom(n: number): Uint32Array {
+    if (this.planeFill + n > this.planeSlab.length) {
+      const len = this.planeSlab.length;
+      if (len > 0 && len < SLAB && this.planeFull.length === 0) {
+        this.planeSlab = grown(this.planeSlab, Math.max(this.planeFill + n, Math.min(SLAB, len * 4)), (m) => new Uint32Array(m));
+        return this.planeSlab;
+      }
+      if (this.planeSlab.length > 0) {
+        this.planeFull.push(this.planeSlab);
+        this.planeUsed.push(this.planeFill);
+      }
+      this.planeSlab = new Uint32Array(Math.max(len === 0 ? FIRST_SLAB : SLAB, n));
+      this.planeFill = 0;
+    }
+    return this.planeSlab;
   }
 
   /**
@@ -193,40 +239,33 @@ export class DumpBuilder {
    * `text` is set only for values holding states beyond 0/1/x/z.
    */
   pushVector(index: number, value: Uint32Array, unknown: Uint32Array, text: string | null, counted = true): void {
-    const f = this.slot(index);
+    this.append(index, counted);
     const words = this.words[index];
-    const planes = this.curP[index];
-    const base = f * 2 * words;
+    const slab = this.planeRoom(2 * words);
+    const at = this.planeFill;
     for (let w = 0; w < words; w++) {
-      planes[base + w] = value[w];
-      planes[base + words + w] = unknown[w];
+      slab[at + w] = value[w];
+      slab[at + words + w] = unknown[w];
     }
-    if (text !== null) this.sigs[index].texts.set(this.countOf(index) - 1, text);
-    if (counted) {
-      this.written[index]++;
-      this.changes++;
-    }
+    this.planeFill = at + 2 * words;
+    if (text !== null) this.texts.set(this.logLen - 1, text);
   }
 
   /** Vector of at most 32 bits, given as its two plane words. */
   pushVectorWord(index: number, value: number, unknown: number, text: string | null): void {
-    const f = this.slot(index);
-    const planes = this.curP[index];
-    planes[2 * f] = value;
-    planes[2 * f + 1] = unknown;
-    if (text !== null) this.sigs[index].texts.set(this.countOf(index) - 1, text);
-    this.written[index]++;
-    this.changes++;
+    this.append(index, true);
+    const slab = this.planeRoom(2);
+    const at = this.planeFill;
+    slab[at] = value;
+    slab[at + 1] = unknown;
+    this.planeFill = at + 2;
+    if (text !== null) this.texts.set(this.logLen - 1, text);
   }
 
   /** String value (kind 'string'), kept as written. */
   pushText(index: number, text: string, counted = true): void {
-    this.slot(index);
-    this.sigs[index].texts.set(this.countOf(index) - 1, text);
-    if (counted) {
-      this.written[index]++;
-      this.changes++;
-    }
+    this.append(index, counted);
+    this.texts.set(this.logLen - 1, text);
   }
 
   /** Vector of all-x (for $dumpoff). */
@@ -235,60 +274,135 @@ export class DumpBuilder {
     this.pushVector(index, new Uint32Array(words), new Uint32Array(words).fill(0xffffffff), null, counted);
   }
 
+  /** Signal index of log entry `pos`. */
+  private logSignal(pos: number): number {
+    const k = Math.floor(pos / SLAB);
+    const slab = k < this.fullSigs.length ? this.fullSigs[k] : this.wideSlab ? this.sig32 : this.sig16;
+    return slab[pos % SLAB];
+  }
+
   /** Removes every change at the current timestamp (used when a dump is cut off mid-step). */
   dropCurrentStep(): void {
     if (this.current < 0) return;
-    const t = this.current;
-    for (let k = 0; k < this.sigs.length; k++) {
-      for (;;) {
-        if (this.fill[k] === 0) {
-          const prev = this.fullT[k].pop();
-          if (!prev) break;
-          const v = this.fullV[k].pop()!;
-          const kind = this.sigs[k].kind;
-          this.curT[k] = prev;
-          if (kind === 'real') this.curR[k] = v as Float64Array;
-          else if (kind === 'vector') this.curP[k] = v as Uint32Array;
-          else this.curL[k] = v as Uint8Array;
-          this.cap[k] = prev.length;
-          this.fill[k] = prev.length;
-          this.done[k] -= prev.length;
-        }
-        const f = this.fill[k];
-        if (this.curT[k][f - 1] !== t) break;
-        this.fill[k] = f - 1;
-        this.sigs[k].texts.delete(this.countOf(k));
-        if (this.written[k] > 0) this.written[k]--;
-        this.changes--;
+    const from = this.stepStart[this.current];
+    for (let pos = this.logLen - 1; pos >= from; pos--) {
+      const k = this.logSignal(pos);
+      this.counts[k]--;
+      this.texts.delete(pos);
+      const kind = this.kinds[k];
+      if (kind === KIND_REAL) this.realFill--;
+      else if (kind === KIND_VECTOR) this.planeFill -= 2 * this.words[k];
+      if (pos % SLAB === 0 && pos > 0) {
+        // Step back into the previous slab.
+        this.codes = this.fullCodes.pop()!;
+        const prev = this.fullSigs.pop()!;
+        this.wideSlab = prev instanceof Uint32Array;
+        if (this.wideSlab) this.sig32 = prev as Uint32Array;
+        else this.sig16 = prev as Uint16Array;
       }
     }
+    // Reals and planes dropped here all lie in their current slabs unless a step spans slabs,
+    // which needs more than a million changes in one time step; clamp rather than misplace.
+    if (this.realFill < 0) this.realFill = 0;
+    if (this.planeFill < 0) this.planeFill = 0;
+    this.logLen = from;
+    this.logFill = from % SLAB === 0 && from > 0 ? SLAB : from % SLAB;
   }
 
   warn(line: number, offset: number, message: string): void {
     if (this.warnings.length < 1000) this.warnings.push({ line, offset, message });
   }
 
+  /** Scatters the change log into exact-size per-signal arrays. */
   finish(bytes: number, truncated: boolean): Dump {
-    for (let k = 0; k < this.sigs.length; k++) {
-      const s = this.sigs[k];
-      const n = this.countOf(k);
-      const f = this.fill[k];
-      s.count = n;
-      s.written = this.written[k];
-      // Each joined array owns an exactly sized buffer, so it can be transferred to another thread.
-      s.timeIndex = joinBlocks(this.fullT[k], this.curT[k], f, new Uint32Array(n));
-      if (s.kind === 'real') s.reals = joinBlocks(this.fullV[k] as Float64Array[], this.curR[k], f, new Float64Array(n));
-      else if (s.kind === 'vector') {
-        const stride = 2 * this.words[k];
-        s.planes = joinBlocks(this.fullV[k] as Uint32Array[], this.curP[k], f * stride, new Uint32Array(n * stride));
-      } else if (s.kind === 'logic' || s.kind === 'event') s.logic = joinBlocks(this.fullV[k] as Uint8Array[], this.curL[k], f, new Uint8Array(n));
-      this.fullT[k] = [];
-      this.fullV[k] = [];
-      this.curT[k] = EMPTY_U32;
-      this.curL[k] = EMPTY_U8;
-      this.curP[k] = EMPTY_U32;
-      this.curR[k] = EMPTY_F64;
+    const n = this.sigs.length;
+    const timeIdx: Uint32Array[] = new Array(n);
+    const logic: Uint8Array[] = new Array(n);
+    const planes: Uint32Array[] = new Array(n);
+    const reals: Float64Array[] = new Array(n);
+    for (let k = 0; k < n; k++) {
+      const c = this.counts[k];
+      const kind = this.kinds[k];
+      timeIdx[k] = new Uint32Array(c);
+      logic[k] = kind === KIND_LOGIC ? new Uint8Array(c) : EMPTY_U8;
+      planes[k] = kind === KIND_VECTOR ? new Uint32Array(c * 2 * this.words[k]) : EMPTY_U32;
+      reals[k] = kind === KIND_REAL ? new Float64Array(c) : EMPTY_F64;
     }
+    const fill = new Int32Array(n);
+    const sigSlabs = [...this.fullSigs, this.wideSlab ? this.sig32 : this.sig16];
+    const codeSlabs = [...this.fullCodes, this.codes];
+    const planeSlabs = [...this.planeFull, this.planeSlab];
+    const realSlabs = [...this.realFull, this.realSlab];
+    this.fullSigs = [];
+    this.fullCodes = [];
+    let planeSlab = 0;
+    let planeAt = 0;
+    let realSlab = 0;
+    let realAt = 0;
+    let step = 0;
+    let nextStep = this.timeCount > 1 ? this.stepStart[1] : Number.POSITIVE_INFINITY;
+    const texts = this.texts;
+    const hasTexts = texts.size > 0;
+    for (let s = 0, pos = 0; s < sigSlabs.length && pos < this.logLen; s++) {
+      const sl = sigSlabs[s];
+      const cl = codeSlabs[s];
+      const end = Math.min(SLAB, this.logLen - pos);
+      for (let i = 0; i < end; i++, pos++) {
+        while (pos >= nextStep) {
+          step++;
+          nextStep = step + 1 < this.timeCount ? this.stepStart[step + 1] : Number.POSITIVE_INFINITY;
+        }
+        const k = sl[i];
+        const j = fill[k]++;
+        timeIdx[k][j] = step;
+        const kind = this.kinds[k];
+        if (kind === KIND_LOGIC) logic[k][j] = cl[i];
+        else if (kind === KIND_VECTOR) {
+          const stride = 2 * this.words[k];
+          if (planeAt + stride > (planeSlab < this.planeUsed.length ? this.planeUsed[planeSlab] : this.planeFill)) {
+            planeSlab++;
+            planeAt = 0;
+          }
+          const src = planeSlabs[planeSlab];
+          const dst = planes[k];
+          const base = j * stride;
+          for (let w = 0; w < stride; w++) dst[base + w] = src[planeAt + w];
+          planeAt += stride;
+        } else if (kind === KIND_REAL) {
+          if (realAt === realSlabs[realSlab].length) {
+            realSlab++;
+            realAt = 0;
+          }
+          reals[k][j] = realSlabs[realSlab][realAt++];
+        }
+        if (hasTexts) {
+          const t = texts.get(pos);
+          if (t !== undefined) this.sigs[k].texts.set(j, t);
+        }
+      }
+      // Let the slab go as soon as it is read.
+      sigSlabs[s] = EMPTY_U16;
+      codeSlabs[s] = EMPTY_U8;
+    }
+    for (let k = 0; k < n; k++) {
+      const sig = this.sigs[k];
+      sig.count = this.counts[k];
+      sig.written = this.counts[k] - this.uncounted[k];
+      sig.timeIndex = timeIdx[k];
+      sig.logic = logic[k];
+      sig.planes = planes[k];
+      sig.reals = reals[k];
+    }
+    const changes = this.changes;
+    this.sig16 = EMPTY_U16;
+    this.sig32 = EMPTY_U32;
+    this.codes = EMPTY_U8;
+    this.planeSlab = EMPTY_U32;
+    this.realSlab = EMPTY_F64;
+    this.planeFull = [];
+    this.planeUsed = [];
+    this.realFull = [];
+    this.texts = new Map();
     return {
       source: this.source,
       date: this.date,
@@ -300,7 +414,7 @@ export class DumpBuilder {
       nets: this.nets,
       signals: this.sigs,
       dumpOff: this.dumpOff,
-      changes: this.changes,
+      changes,
       bytes,
       truncated,
       warnings: this.warnings,
