@@ -59,7 +59,7 @@ export function bitPosition(net: Net, bit: number): number {
   return net.msb >= net.lsb ? bit - net.lsb : net.lsb - bit;
 }
 
-function globToRegExp(glob: string): RegExp {
+export function globToRegExp(glob: string): RegExp {
   let re = '';
   for (const ch of glob) {
     if (ch === '*') re += '.*';
