@@ -316,17 +316,20 @@ export class DumpBuilder {
   /** Scatters the change log into exact-size per-signal arrays. */
   finish(bytes: number, truncated: boolean): Dump {
     const n = this.sigs.length;
-    const timeIdx: Uint32Array[] = new Array(n);
-    const logic: Uint8Array[] = new Array(n);
-    const planes: Uint32Array[] = new Array(n);
-    const reals: Float64Array[] = new Array(n);
+    const kinds = this.kinds;
+    const words = this.words;
+    // Packed arrays (built by push, not new Array(n)) keep element loads on the fast path.
+    const timeIdx: Uint32Array[] = [];
+    const logic: Uint8Array[] = [];
+    const planes: Uint32Array[] = [];
+    const reals: Float64Array[] = [];
     for (let k = 0; k < n; k++) {
       const c = this.counts[k];
-      const kind = this.kinds[k];
-      timeIdx[k] = new Uint32Array(c);
-      logic[k] = kind === KIND_LOGIC ? new Uint8Array(c) : EMPTY_U8;
-      planes[k] = kind === KIND_VECTOR ? new Uint32Array(c * 2 * this.words[k]) : EMPTY_U32;
-      reals[k] = kind === KIND_REAL ? new Float64Array(c) : EMPTY_F64;
+      const kind = kinds[k];
+      timeIdx.push(new Uint32Array(c));
+      logic.push(kind === KIND_LOGIC ? new Uint8Array(c) : EMPTY_U8);
+      planes.push(kind === KIND_VECTOR ? new Uint32Array(c * 2 * words[k]) : EMPTY_U32);
+      reals.push(kind === KIND_REAL ? new Float64Array(c) : EMPTY_F64);
     }
     const fill = new Int32Array(n);
     const sigSlabs = [...this.fullSigs, this.wideSlab ? this.sig32 : this.sig16];
@@ -355,10 +358,10 @@ export class DumpBuilder {
         const k = sl[i];
         const j = fill[k]++;
         timeIdx[k][j] = step;
-        const kind = this.kinds[k];
+        const kind = kinds[k];
         if (kind === KIND_LOGIC) logic[k][j] = cl[i];
         else if (kind === KIND_VECTOR) {
-          const stride = 2 * this.words[k];
+          const stride = 2 * words[k];
           if (planeAt + stride > (planeSlab < this.planeUsed.length ? this.planeUsed[planeSlab] : this.planeFill)) {
             planeSlab++;
             planeAt = 0;
