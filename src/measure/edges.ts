@@ -1,0 +1,129 @@
+// One entry point for the edges of any net or bit, by the net's kind.
+
+import type { Dump, Signal } from '../model/dump';
+import { type NetRef, bitPosition } from '../model/netref';
+import { type LevelSpec, MESIAL } from './level';
+import { logicEdges } from './logicEdges';
+import { realEdges } from './realEdges';
+import { ticksToSeconds } from './ticks';
+import { EDGE_NAMES, EdgeDir, type EdgeList, type EdgeResult, edgeListOf } from './types';
+import { unknownSpans } from './unknown';
+import { vectorBitEdges } from './vectorBitEdges';
+import { vectorEdges } from './vectorEdges';
+
+export interface EdgeOptions {
+  /** Reference level for real nets (default 50 %, the mesial level). Ignored for logic and vector nets. */
+  level?: LevelSpec;
+  /** State levels for real nets, instead of the histogram-mode estimate. */
+  states?: { low: number; high: number };
+}
+
+/** Event and string nets: every settled change is a `change` edge. */
+function changeEdges(times: Float64Array, sig: Signal, label: string): EdgeList {
+  const ticks = new Float64Array(sig.count);
+  let count = 0;
+  for (let i = 0; i < sig.count; i++) {
+    const tick = times[sig.timeIndex[i]];
+    if (count === 0 || ticks[count - 1] !== tick) ticks[count++] = tick;
+  }
+  return edgeListOf({
+    label,
+    source: 'other',
+    count,
+    ticks: ticks.slice(0, count),
+    dir: new Uint8Array(count).fill(EdgeDir.Change),
+    transition: null,
+    unknown: [],
+    unknownState: [],
+    zeroWidth: [],
+    runts: [],
+    levels: null,
+  });
+}
+
+/** Edges in ticks and typed arrays (the viewer draws markers from this). */
+export function edgeList(dump: Dump, ref: NetRef, opts: EdgeOptions = {}): EdgeList {
+  const sig = dump.signals[ref.net.signal];
+  if (ref.bit !== null) {
+    const p = bitPosition(ref.net, ref.bit);
+    if (sig.kind !== 'vector') return logicEdges(dump.times, sig, ref.label);
+    return edgeListOf({ ...vectorBitEdges(dump.times, sig, ref.net, [p]).get(p)!, label: ref.label });
+  }
+  switch (sig.kind) {
+    case 'logic':
+      return logicEdges(dump.times, sig, ref.label);
+    case 'vector':
+      return vectorEdges(dump.times, sig, ref.label);
+    case 'real':
+      return realEdges(dump.times, sig, ref.label, dump.endTick, { level: opts.level ?? MESIAL, states: opts.states });
+    default:
+      return changeEdges(dump.times, sig, ref.label);
+  }
+}
+
+/**
+ * Edge lists of many nets and bits, in the order given. Bits of one vector are found together in one
+ * pass over its changes, so searching every bit of a wide bus costs about one pass, not one per bit.
+ */
+export function edgeLists(dump: Dump, refs: NetRef[], opts: EdgeOptions = {}): EdgeList[] {
+  const bitsByNet = new Map<number, number[]>();
+  refs.forEach((ref) => {
+    if (ref.bit === null || dump.signals[ref.net.signal].kind !== 'vector') return;
+    const list = bitsByNet.get(ref.net.signal) ?? [];
+    list.push(bitPosition(ref.net, ref.bit));
+    bitsByNet.set(ref.net.signal, list);
+  });
+  const found = new Map<number, Map<number, EdgeList>>();
+  return refs.map((ref) => {
+    const sig = dump.signals[ref.net.signal];
+    if (ref.bit === null || sig.kind !== 'vector') return edgeList(dump, ref, opts);
+    let perBit = found.get(ref.net.signal);
+    if (!perBit) {
+      perBit = vectorBitEdges(dump.times, sig, ref.net, bitsByNet.get(ref.net.signal)!);
+      found.set(ref.net.signal, perBit);
+    }
+    return edgeListOf({ ...perBit.get(bitPosition(ref.net, ref.bit))!, label: ref.label });
+  });
+}
+
+/** The `midrail edges` result. */
+export function findEdges(dump: Dump, ref: NetRef, opts: EdgeOptions = {}): EdgeResult {
+  const list = edgeList(dump, ref, opts);
+  const ts = dump.timescale;
+  const s = (ticks: number) => ticksToSeconds(ts, ticks);
+  const level = (opts.level ?? MESIAL).text;
+  const result: EdgeResult = list.levels
+    ? {
+        net: ref.label,
+        level,
+        low: list.levels.low,
+        high: list.levels.high,
+        state_method: list.levels.method,
+        reference_value: list.levels.reference,
+        edges: [],
+        zero_width_s: [],
+        unknown_spans: [],
+      }
+    : { net: ref.label, level, edges: [], zero_width_s: [], unknown_spans: [] };
+  for (let k = 0; k < list.count; k++) {
+    const edge = { time_s: s(list.ticks[k]), edge: EDGE_NAMES[list.dir[k]] } as EdgeResult['edges'][number];
+    if (list.transition) {
+      const d = list.transition[k];
+      edge.transition_s = Number.isFinite(d) ? s(d) : null;
+    }
+    result.edges.push(edge);
+  }
+  if (list.levels) {
+    result.runts = [];
+    for (let k = 0; k + 2 < list.runts.length; k += 3) {
+      result.runts.push({
+        start_s: s(list.runts[k]),
+        width_s: s(list.runts[k + 1] - list.runts[k]),
+        polarity: list.runts[k + 2] === EdgeDir.Rise ? 'high' : 'low',
+      });
+    }
+  }
+  result.zero_width_s = list.zeroWidth.map(s);
+  result.unknown_spans = unknownSpans(dump, list);
+  return result;
+}

@@ -1,0 +1,14 @@
+// Measurement engine: pure TypeScript shared by the viewer and the CLI (no DOM, no Node APIs).
+
+export { findEdges, edgeList, edgeLists, type EdgeOptions } from './edges';
+export { logicEdges } from './logicEdges';
+export { vectorBitEdges, declaredBit } from './vectorBitEdges';
+export { measureDelay, pairEdges, PAIR_KINDS, UNPAIRED_REASONS, type DelayOptions, type PairList } from './delay';
+export { measureSkew, type SkewOptions } from './skew';
+export { findGlitches, glitchTargets, netGlitches, GlitchSink, type GlitchOptions } from './glitches';
+export { parseLevel, levelValue, LevelSyntaxError, MESIAL, type LevelSpec } from './level';
+export { histogramStateLevels, HISTOGRAM_BINS, MIN_HISTOGRAM_SAMPLES, type StateLevels } from './stateLevels';
+export { BOUNDARY_PERCENT, LOWER_PERCENT, UPPER_PERCENT } from './realEdges';
+export { MeasureError } from './errors';
+export { ticksToSeconds, secondsToTicks, windowTicks } from './ticks';
+export * from './types';

@@ -1,0 +1,70 @@
+import { describe, expect, it } from 'vitest';
+import { MeasureError, findGlitches } from '../../src/measure';
+import { resolveNetList } from '../../src/model/netref';
+import { buildDump } from './measure-dumps';
+
+describe('findGlitches', () => {
+  const dump = buildDump([
+    // high pulse of 1, low pulse of 2, then a wide pulse of 10
+    { path: 'top.x', kind: 'logic', changes: [[0, '0'], [11, '1'], [12, '0'], [20, '1'], [22, '0'], [30, '1'], [40, '0']] },
+    // zero-width at 15; a pulse with an x inside is not a clean pulse
+    { path: 'top.w', kind: 'logic', changes: [[0, '0'], [15, '1'], [15, '0'], [50, '1'], [50, 'x'], [51, '1'], [52, '0']] },
+    // bit 1 of a vector pulses for 1 tick
+    { path: 'top.bus', kind: 'vector', width: 2, changes: [[0, '00'], [60, '10'], [61, '00']] },
+  ]);
+
+  it('finds pulses strictly narrower than the width on every 1-bit net and vector bit, sorted by time then net', () => {
+    const r = findGlitches(dump, { maxWidthS: 2e-9 });
+    expect(r.glitches).toEqual([
+      { net: 'top.x', start_s: 1.1e-8, width_s: 1e-9, polarity: 'high' },
+      { net: 'top.w', start_s: 1.5e-8, width_s: 0, polarity: 'zero-width' },
+      { net: 'top.bus[1]', start_s: 6e-8, width_s: 1e-9, polarity: 'high' },
+    ]);
+    expect(r.count).toBe(3);
+    expect(r.nets).toBe(4);
+    expect(r.max_width_s).toBe(2e-9);
+  });
+
+  it('reports high and low pulses by polarity and honours the strict width limit', () => {
+    const d = buildDump([{ path: 'top.n', kind: 'logic', changes: [[0, '1'], [10, '0'], [12, '1'], [20, '0'], [23, '1'], [30, '0'], [33, '1']] }]);
+    const r = findGlitches(d, { maxWidthS: 3e-9 });
+    // Low pulse 10–12 is 2 wide; the high pulses (8, 7) are wide; low pulses 20–23 and 30–33 are exactly 3: not narrower.
+    expect(r.glitches).toEqual([{ net: 'top.n', start_s: 1e-8, width_s: 2e-9, polarity: 'low' }]);
+    const wider = findGlitches(d, { maxWidthS: 3.5e-9 });
+    expect(wider.glitches.map((g) => [g.polarity, g.width_s])).toEqual([
+      ['low', 2e-9],
+      ['low', 3e-9],
+      ['low', 3e-9],
+    ]);
+  });
+
+  it('expands a named vector into its bits', () => {
+    const r = findGlitches(dump, { maxWidthS: 2e-9, nets: resolveNetList(dump, 'top.bus') });
+    expect(r.nets).toBe(2);
+    expect(r.glitches.map((g) => g.net)).toEqual(['top.bus[1]']);
+  });
+
+  it('sorts glitches at one time by net name', () => {
+    const d = buildDump([
+      { path: 'top.m', kind: 'logic', changes: [[0, '0'], [5, '1'], [6, '0']] },
+      { path: 'top.c', kind: 'logic', changes: [[0, '0'], [5, '1'], [6, '0']] },
+    ]);
+    expect(findGlitches(d, { maxWidthS: 2e-9 }).glitches.map((g) => g.net)).toEqual(['top.c', 'top.m']);
+  });
+
+  it('reports runts on real nets whatever their width', () => {
+    const changes: Array<[number, number]> = [];
+    for (let t = 0; t <= 1000; t++) {
+      const v = t < 100 ? 0 : t < 200 ? (0.7 * (t - 100)) / 100 : t < 300 ? 0.7 - (0.7 * (t - 200)) / 100 : t < 500 ? 0 : t < 510 ? (t - 500) / 10 : 1;
+      changes.push([t, v]);
+    }
+    const d = buildDump([{ path: 'top.v', kind: 'real', changes }]);
+    const r = findGlitches(d, { maxWidthS: 1e-9 });
+    expect(r.glitches).toHaveLength(1);
+    expect(r.glitches[0]).toMatchObject({ net: 'top.v', polarity: 'runt' });
+  });
+
+  it('rejects a zero or negative width', () => {
+    expect(() => findGlitches(dump, { maxWidthS: 0 })).toThrow(MeasureError);
+  });
+});
