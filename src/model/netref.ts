@@ -23,10 +23,16 @@ function candidatesByName(dump: Dump, name: string): Net[] {
   return dump.nets.filter((n) => n.path.endsWith('.' + name));
 }
 
-/** Several $var lines may name the same path (aliases); they share one signal, so any one will do. */
+/**
+ * Several $var lines may be one net seen from several scopes (a port and the wire it connects
+ * share one identifier code); they hold the same data, so a name matching only those is not
+ * ambiguous and resolves to the shortest path.
+ */
 function single(dump: Dump, name: string, found: Net[]): Net | null {
   if (found.length === 0) return null;
   const paths = new Set(found.map((n) => n.path));
+  const signals = new Set(found.map((n) => n.signal));
+  if (signals.size === 1) return found.reduce((a, b) => (b.path.length < a.path.length ? b : a));
   if (paths.size > 1) {
     const list = [...paths].slice(0, 5).join(', ');
     throw new NetLookupError(`net name '${name}' is ambiguous: it matches ${paths.size} nets (${list}${paths.size > 5 ? ', …' : ''}); give more of the path`);
