@@ -2,23 +2,9 @@
 // files, through the report module's formula-injection guard and sheet-name rules. exceljs is
 // loaded on first use. Only writes workbooks.
 
-import type { Workbook } from 'exceljs';
-import { csvLine, neutralizeText, sheetName, type Cell } from '../report/index';
+import { cellValue, csvLine, newWorkbook, sheetName } from '../report/index';
 import type { CheckDocument } from './result';
 import { type Table, checkTables } from './sheets';
-
-function cellValue(c: Cell): string | number | null {
-  if (c === null || c === undefined) return null;
-  if (typeof c === 'number') return Number.isFinite(c) ? c : null;
-  return neutralizeText(c);
-}
-
-async function newWorkbook(): Promise<Workbook> {
-  const mod = (await import('exceljs')) as unknown as { default?: { Workbook: new () => Workbook }; Workbook?: new () => Workbook };
-  const Ctor = mod.default?.Workbook ?? mod.Workbook;
-  if (!Ctor) throw new Error('exceljs did not load');
-  return new Ctor();
-}
 
 /** Any list of tables as a workbook, one sheet each, header row in bold. */
 export async function tablesWorkbook(tables: Table[]): Promise<Uint8Array> {

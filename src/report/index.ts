@@ -4,4 +4,4 @@ export { neutralizeText } from './inject';
 export { csvField, csvLine, toCsv } from './csv';
 export { type Cell, type MeasurementSheet, type SummaryRow, SUMMARY_KEYS, delaySheet, edgesSheet, glitchSheet, skewSheet } from './sheet';
 export { type Provenance, provenanceFor, provenanceRows, sha256Hex } from './provenance';
-export { sheetName, writeXlsx } from './xlsx';
+export { cellValue, newWorkbook, sheetName, writeXlsx } from './xlsx';

@@ -20,13 +20,15 @@ export function sheetName(title: string, taken: Set<string>): string {
   return name;
 }
 
-function cellValue(c: Cell): string | number | null {
+/** A cell for exceljs: finite numbers stay numeric, text is neutralised against formula injection. */
+export function cellValue(c: Cell): string | number | null {
   if (c === null || c === undefined) return null;
   if (typeof c === 'number') return Number.isFinite(c) ? c : null;
   return neutralizeText(c);
 }
 
-async function newWorkbook(): Promise<Workbook> {
+/** A new exceljs workbook; exceljs is loaded on first use. */
+export async function newWorkbook(): Promise<Workbook> {
   const mod = (await import('exceljs')) as unknown as { default?: { Workbook: new () => Workbook }; Workbook?: new () => Workbook };
   const Ctor = mod.default?.Workbook ?? mod.Workbook;
   if (!Ctor) throw new Error('exceljs did not load');
