@@ -3,9 +3,9 @@
 // While parsing, every change is appended to one change log in file order: the signal index
 // (16 bits while there are fewer than 65,536 signals, else 32) and, for 1-bit signals, the state
 // code; vector planes and reals go to logs of their own. Appending is sequential, so it costs
-// about what reading the bytes costs, whatever the number of signals. finish() counts are already
-// known, so it allocates each signal's arrays at their exact size and scatters the log into them
-// in one pass. The peak is the log (3 bytes per 1-bit change) plus the final arrays (5 bytes).
+// about what reading the bytes costs, whatever the number of signals. At finish() the counts are
+// known, so each signal's arrays are allocated at their exact size and the log is scattered into
+// them in one pass. The peak is the log (3 bytes per 1-bit change) plus the final arrays (5 bytes).
 
 import type { Dump, DumpWarning, Net, Scope, Signal, SignalKind, Timescale } from './dump';
 import { wordsFor } from './dump';
@@ -79,7 +79,14 @@ export class DumpBuilder {
   version = '';
   timescale: Timescale = { magnitude: 1, unit: 's', seconds: 1 };
 
-  constructor(readonly source: string) {}
+  /**
+   * `shared`: put the finished arrays on SharedArrayBuffers (where the page is cross-origin
+   * isolated), so the page and a measuring worker read one copy.
+   */
+  constructor(
+    readonly source: string,
+    private readonly options: { shared?: boolean } = {},
+  ) {}
 
   get signalCount(): number {
     return this.sigs.length;
@@ -318,18 +325,41 @@ export class DumpBuilder {
     const n = this.sigs.length;
     const kinds = this.kinds;
     const words = this.words;
+    // Each kind of array is carved from one buffer, so a finished dump owns four buffers in all
+    // (cheap to allocate and to transfer) and each signal's array is an exact-size view.
+    let nT = 0;
+    let nL = 0;
+    let nP = 0;
+    let nR = 0;
+    for (let k = 0; k < n; k++) {
+      const c = this.counts[k];
+      nT += c;
+      if (kinds[k] === KIND_LOGIC) nL += c;
+      else if (kinds[k] === KIND_VECTOR) nP += c * 2 * words[k];
+      else if (kinds[k] === KIND_REAL) nR += c;
+    }
+    const alloc = (bytes: number): ArrayBuffer =>
+      this.options.shared && typeof SharedArrayBuffer === 'function' ? (new SharedArrayBuffer(bytes) as unknown as ArrayBuffer) : new ArrayBuffer(bytes);
+    const allT = new Uint32Array(alloc(nT * 4));
+    const allL = new Uint8Array(alloc(nL));
+    const allP = new Uint32Array(alloc(nP * 4));
+    const allR = new Float64Array(alloc(nR * 8));
     // Packed arrays (built by push, not new Array(n)) keep element loads on the fast path.
     const timeIdx: Uint32Array[] = [];
     const logic: Uint8Array[] = [];
     const planes: Uint32Array[] = [];
     const reals: Float64Array[] = [];
+    let aT = 0;
+    let aL = 0;
+    let aP = 0;
+    let aR = 0;
     for (let k = 0; k < n; k++) {
       const c = this.counts[k];
       const kind = kinds[k];
-      timeIdx.push(new Uint32Array(c));
-      logic.push(kind === KIND_LOGIC ? new Uint8Array(c) : EMPTY_U8);
-      planes.push(kind === KIND_VECTOR ? new Uint32Array(c * 2 * words[k]) : EMPTY_U32);
-      reals.push(kind === KIND_REAL ? new Float64Array(c) : EMPTY_F64);
+      timeIdx.push(allT.subarray(aT, (aT += c)));
+      logic.push(kind === KIND_LOGIC ? allL.subarray(aL, (aL += c)) : EMPTY_U8);
+      planes.push(kind === KIND_VECTOR ? allP.subarray(aP, (aP += c * 2 * words[k])) : EMPTY_U32);
+      reals.push(kind === KIND_REAL ? allR.subarray(aR, (aR += c)) : EMPTY_F64);
     }
     const fill = new Int32Array(n);
     const sigSlabs = [...this.fullSigs, this.wideSlab ? this.sig32 : this.sig16];
@@ -397,6 +427,8 @@ export class DumpBuilder {
       sig.reals = reals[k];
     }
     const changes = this.changes;
+    const times = new Float64Array(alloc(this.timeCount * 8));
+    times.set(this.times.subarray(0, this.timeCount));
     this.sig16 = EMPTY_U16;
     this.sig32 = EMPTY_U32;
     this.codes = EMPTY_U8;
@@ -411,7 +443,7 @@ export class DumpBuilder {
       date: this.date,
       version: this.version,
       timescale: this.timescale,
-      times: this.times.slice(0, this.timeCount),
+      times,
       endTick: this.endTick,
       scopes: this.scopes,
       nets: this.nets,

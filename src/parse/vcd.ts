@@ -92,11 +92,13 @@ export class VcdParser {
   private logicKinds = new Uint8Array(64);
   private unknownPlane = new Uint32Array(4);
 
+  /** `storage.shared` puts the finished arrays on SharedArrayBuffers (see DumpBuilder). */
   constructor(
     readonly source: string,
     limits: Partial<VcdLimits> = {},
+    storage: { shared?: boolean } = {},
   ) {
-    this.b = new DumpBuilder(source);
+    this.b = new DumpBuilder(source, storage);
     this.limits = { ...DEFAULT_LIMITS, ...limits };
   }
 

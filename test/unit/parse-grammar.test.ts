@@ -214,3 +214,22 @@ describe('lookups run on the indexed arrays', () => {
     expect([0, 1, 10, 11, 20, 31].map((t) => firstChangeAtOrAfter(d, sig, t))).toEqual([0, 1, 1, 2, 2, 5]);
   });
 });
+
+describe('storage of the finished dump', () => {
+  const text = header('$var wire 1 ! a $end\n$var wire 4 " v [3:0] $end\n$var real 64 # r $end') + '#0\n0!\nb0 "\nr1 #\n#5\n1!\nb1x "\nr2 #\n';
+  it('carves every signal array from a few buffers that a transfer list can name', async () => {
+    const { dumpBuffers } = await import('../../src/model/dump');
+    const d = parseVcd(text);
+    const buffers = dumpBuffers(d);
+    expect(buffers.length).toBeLessThanOrEqual(5);
+    for (const s of d.signals) expect(buffers).toContain(s.timeIndex.buffer);
+  });
+  it('puts them on SharedArrayBuffers when asked, with the same values', () => {
+    const p = new VcdParser('shared.vcd', {}, { shared: true });
+    p.push(new TextEncoder().encode(text));
+    const d = p.finish();
+    expect(d.signals[0].timeIndex.buffer).toBeInstanceOf(SharedArrayBuffer);
+    expect(history(d, 'v')).toEqual(history(parseVcd(text), 'v'));
+    expect(history(d, 'r')).toEqual(['0:1', '5:2']);
+  });
+});
