@@ -18,7 +18,7 @@ export interface ReadDumpOptions {
 
 const PIECE = 16 * 1024 * 1024;
 
-async function isGzip(path: string): Promise<boolean> {
+export async function isGzip(path: string): Promise<boolean> {
   const fh = await open(path, 'r');
   try {
     const head = Buffer.alloc(2);
@@ -30,7 +30,6 @@ async function isGzip(path: string): Promise<boolean> {
 }
 
 export async function readDumpFile(path: string, options: ReadDumpOptions = {}): Promise<Dump> {
-  const warn = options.warn ?? ((m: string) => process.stderr.write(`midrail: warning: ${m}\n`));
   try {
     const st = await stat(path);
     if (!st.isFile()) throw new UsageError(`cannot read dump '${path}': not a file`);
@@ -52,6 +51,12 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
     if (gz && e.code?.startsWith('Z_')) throw new UsageError(`${path}: the gzip data is damaged after ${parser.bytesRead} bytes of VCD (${e.message})`);
     throw err;
   }
+  return finishDump(parser, options);
+}
+
+/** Ends a parse fed by any reader: refuses a cut-off dump unless allowed, and passes the warnings on. */
+export function finishDump(parser: VcdParser, options: ReadDumpOptions = {}): Dump {
+  const warn = options.warn ?? ((m: string) => process.stderr.write(`midrail: warning: ${m}\n`));
   const dump = parser.finish();
   if (dump.truncated) {
     const cut = dump.warnings[dump.warnings.length - 1]?.message ?? 'the dump is cut off';

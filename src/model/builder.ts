@@ -12,6 +12,9 @@ import { wordsFor } from './dump';
 
 const SLAB = 1 << 20;
 const FIRST_SLAB = 1 << 12;
+const TIME_SHIFT = 14;
+const TIME_SLAB = 1 << TIME_SHIFT;
+const TIME_MASK = TIME_SLAB - 1;
 const EMPTY_U8 = new Uint8Array(0);
 const EMPTY_U16 = new Uint16Array(0);
 const EMPTY_U32 = new Uint32Array(0);
@@ -68,9 +71,11 @@ export class DumpBuilder {
   /** Texts (strings, vectors with states beyond 0/1/x/z) by log position. */
   private texts = new Map<number, string>();
 
-  private times = new Float64Array(1024);
-  /** Log position where each timestamp's changes begin. */
-  private stepStart = new Float64Array(1024);
+  // Timestamps in slabs too (no copies while growing): the tick of each, and the log position
+  // where its changes begin.
+  private timeSlabs: Float64Array[] = [];
+  private stepSlabs: Uint32Array[] = [];
+  private lastTick = 0;
   private timeCount = 0;
   /** Index of the current timestamp in `times`, -1 before the first `#`. */
   private current = -1;
@@ -93,7 +98,7 @@ export class DumpBuilder {
   }
 
   get currentTick(): number {
-    return this.current < 0 ? 0 : this.times[this.current];
+    return this.current < 0 ? 0 : this.lastTick;
   }
 
   /** Changes written in the file so far (each once, whatever the aliases). */
@@ -148,13 +153,16 @@ export class DumpBuilder {
 
   /** Moves to a timestamp; equal ticks reuse the current slot, earlier ones are the caller's error to report. */
   setTime(tick: number): void {
-    if (this.current >= 0 && this.times[this.current] === tick) return;
-    if (this.timeCount === this.times.length) {
-      this.times = grown(this.times, this.timeCount + 1, (n) => new Float64Array(n));
-      this.stepStart = grown(this.stepStart, this.timeCount + 1, (n) => new Float64Array(n));
+    if (this.current >= 0 && this.lastTick === tick) return;
+    const slot = this.timeCount & TIME_MASK;
+    if (slot === 0) {
+      this.timeSlabs.push(new Float64Array(TIME_SLAB));
+      this.stepSlabs.push(new Uint32Array(TIME_SLAB));
     }
-    this.times[this.timeCount] = tick;
-    this.stepStart[this.timeCount] = this.logLen;
+    if (this.logLen > 0xffffffff) throw new RangeError('more than 4,294,967,295 changes in one dump');
+    this.timeSlabs[this.timeSlabs.length - 1][slot] = tick;
+    this.stepSlabs[this.stepSlabs.length - 1][slot] = this.logLen;
+    this.lastTick = tick;
     this.current = this.timeCount++;
     this.endTick = tick;
   }
@@ -288,10 +296,15 @@ export class DumpBuilder {
     return slab[pos % SLAB];
   }
 
+  /** Log position where timestamp j's changes begin. */
+  private stepStartOf(j: number): number {
+    return this.stepSlabs[j >>> TIME_SHIFT][j & TIME_MASK];
+  }
+
   /** Removes every change at the current timestamp (used when a dump is cut off mid-step). */
   dropCurrentStep(): void {
     if (this.current < 0) return;
-    const from = this.stepStart[this.current];
+    const from = this.stepStartOf(this.current);
     for (let pos = this.logLen - 1; pos >= from; pos--) {
       const k = this.logSignal(pos);
       this.counts[k]--;
@@ -344,27 +357,30 @@ export class DumpBuilder {
     const allL = new Uint8Array(alloc(nL));
     const allP = new Uint32Array(alloc(nP * 4));
     const allR = new Float64Array(alloc(nR * 8));
-    // Packed arrays (built by push, not new Array(n)) keep element loads on the fast path.
-    const timeIdx: Uint32Array[] = [];
-    const logic: Uint8Array[] = [];
-    const planes: Uint32Array[] = [];
-    const reals: Float64Array[] = [];
-    let aT = 0;
-    let aL = 0;
-    let aP = 0;
-    let aR = 0;
-    for (let k = 0; k < n; k++) {
+    // Per signal, where its part of each buffer starts; the scatter writes through cursors into
+    // the four flat arrays, so no per-signal array object is touched per change.
+    const startT = new Int32Array(n);
+    const curT = new Int32Array(n);
+    const curL = new Int32Array(n);
+    const curP = new Int32Array(n);
+    const curR = new Int32Array(n);
+    const stride = new Int32Array(n);
+    for (let k = 0, aT = 0, aL = 0, aP = 0, aR = 0; k < n; k++) {
       const c = this.counts[k];
-      const kind = kinds[k];
-      timeIdx.push(allT.subarray(aT, (aT += c)));
-      logic.push(kind === KIND_LOGIC ? allL.subarray(aL, (aL += c)) : EMPTY_U8);
-      planes.push(kind === KIND_VECTOR ? allP.subarray(aP, (aP += c * 2 * words[k])) : EMPTY_U32);
-      reals.push(kind === KIND_REAL ? allR.subarray(aR, (aR += c)) : EMPTY_F64);
+      startT[k] = curT[k] = aT;
+      curL[k] = aL;
+      curP[k] = aP;
+      curR[k] = aR;
+      stride[k] = 2 * words[k];
+      aT += c;
+      if (kinds[k] === KIND_LOGIC) aL += c;
+      else if (kinds[k] === KIND_VECTOR) aP += c * 2 * words[k];
+      else if (kinds[k] === KIND_REAL) aR += c;
     }
-    const fill = new Int32Array(n);
     const sigSlabs = [...this.fullSigs, this.wideSlab ? this.sig32 : this.sig16];
     const codeSlabs = [...this.fullCodes, this.codes];
     const planeSlabs = [...this.planeFull, this.planeSlab];
+    const planeUsed = [...this.planeUsed, this.planeFill];
     const realSlabs = [...this.realFull, this.realSlab];
     this.fullSigs = [];
     this.fullCodes = [];
@@ -373,62 +389,70 @@ export class DumpBuilder {
     let realSlab = 0;
     let realAt = 0;
     let step = 0;
-    let nextStep = this.timeCount > 1 ? this.stepStart[1] : Number.POSITIVE_INFINITY;
+    const timeCount = this.timeCount;
+    let nextStep = timeCount > 1 ? this.stepStartOf(1) : Number.POSITIVE_INFINITY;
     const texts = this.texts;
     const hasTexts = texts.size > 0;
-    for (let s = 0, pos = 0; s < sigSlabs.length && pos < this.logLen; s++) {
+    const logLen = this.logLen;
+    for (let s = 0, pos = 0; s < sigSlabs.length && pos < logLen; s++) {
       const sl = sigSlabs[s];
       const cl = codeSlabs[s];
-      const end = Math.min(SLAB, this.logLen - pos);
+      const end = Math.min(SLAB, logLen - pos);
       for (let i = 0; i < end; i++, pos++) {
         while (pos >= nextStep) {
           step++;
-          nextStep = step + 1 < this.timeCount ? this.stepStart[step + 1] : Number.POSITIVE_INFINITY;
+          nextStep = step + 1 < timeCount ? this.stepStartOf(step + 1) : Number.POSITIVE_INFINITY;
         }
         const k = sl[i];
-        const j = fill[k]++;
-        timeIdx[k][j] = step;
+        const t = curT[k]++;
+        allT[t] = step;
         const kind = kinds[k];
-        if (kind === KIND_LOGIC) logic[k][j] = cl[i];
+        if (kind === KIND_LOGIC) allL[curL[k]++] = cl[i];
         else if (kind === KIND_VECTOR) {
-          const stride = 2 * words[k];
-          if (planeAt + stride > (planeSlab < this.planeUsed.length ? this.planeUsed[planeSlab] : this.planeFill)) {
+          const w = stride[k];
+          if (planeAt + w > planeUsed[planeSlab]) {
             planeSlab++;
             planeAt = 0;
           }
           const src = planeSlabs[planeSlab];
-          const dst = planes[k];
-          const base = j * stride;
-          for (let w = 0; w < stride; w++) dst[base + w] = src[planeAt + w];
-          planeAt += stride;
+          const at = curP[k];
+          for (let q = 0; q < w; q++) allP[at + q] = src[planeAt + q];
+          curP[k] = at + w;
+          planeAt += w;
         } else if (kind === KIND_REAL) {
           if (realAt === realSlabs[realSlab].length) {
             realSlab++;
             realAt = 0;
           }
-          reals[k][j] = realSlabs[realSlab][realAt++];
+          allR[curR[k]++] = realSlabs[realSlab][realAt++];
         }
         if (hasTexts) {
-          const t = texts.get(pos);
-          if (t !== undefined) this.sigs[k].texts.set(j, t);
+          const text = texts.get(pos);
+          if (text !== undefined) this.sigs[k].texts.set(t - startT[k], text);
         }
       }
       // Let the slab go as soon as it is read.
       sigSlabs[s] = EMPTY_U16;
       codeSlabs[s] = EMPTY_U8;
     }
-    for (let k = 0; k < n; k++) {
+    for (let k = 0, aT = 0, aL = 0, aP = 0, aR = 0; k < n; k++) {
       const sig = this.sigs[k];
-      sig.count = this.counts[k];
-      sig.written = this.counts[k] - this.uncounted[k];
-      sig.timeIndex = timeIdx[k];
-      sig.logic = logic[k];
-      sig.planes = planes[k];
-      sig.reals = reals[k];
+      const c = this.counts[k];
+      const kind = kinds[k];
+      sig.count = c;
+      sig.written = c - this.uncounted[k];
+      sig.timeIndex = allT.subarray(aT, (aT += c));
+      sig.logic = kind === KIND_LOGIC ? allL.subarray(aL, (aL += c)) : EMPTY_U8;
+      sig.planes = kind === KIND_VECTOR ? allP.subarray(aP, (aP += c * stride[k])) : EMPTY_U32;
+      sig.reals = kind === KIND_REAL ? allR.subarray(aR, (aR += c)) : EMPTY_F64;
     }
     const changes = this.changes;
     const times = new Float64Array(alloc(this.timeCount * 8));
-    times.set(this.times.subarray(0, this.timeCount));
+    for (let j = 0, at = 0; at < this.timeCount; j++, at += TIME_SLAB) {
+      times.set(this.timeSlabs[j].subarray(0, Math.min(TIME_SLAB, this.timeCount - at)), at);
+    }
+    this.timeSlabs = [];
+    this.stepSlabs = [];
     this.sig16 = EMPTY_U16;
     this.sig32 = EMPTY_U32;
     this.codes = EMPTY_U8;

@@ -566,8 +566,20 @@ export class VcdParser {
     let u = 0;
     let exotic = false;
     for (let k = s; k < e; k++) {
-      const code = SCALAR[buf[k]];
-      if (code < 0) this.badDigit(buf[k]);
+      const ch = buf[k];
+      // 0 and 1 first: nearly every digit of a real dump is one of them.
+      if (ch === 48) {
+        v <<= 1;
+        u <<= 1;
+        continue;
+      }
+      if (ch === 49) {
+        v = (v << 1) | 1;
+        u <<= 1;
+        continue;
+      }
+      const code = SCALAR[ch];
+      if (code < 0) this.badDigit(ch);
       if (code > 3) {
         exotic = true;
         v <<= 1;

@@ -4,6 +4,7 @@
 
 import type { BenchOptions, SectionName } from '../options';
 import { info } from '../report';
+import { checkSection } from './check';
 import { measureSection } from './measure';
 import { parseSection } from './parse';
 
@@ -21,9 +22,7 @@ function pending(what: string): (opts: BenchOptions) => Promise<void> {
 export const SECTIONS: Section[] = [
   { name: 'parse', issue: '2', run: parseSection },
   { name: 'measure', issue: '3', run: measureSection },
-  // HOOK issue 6: `midrail check` over 20 synthetic dumps of 20 MB with a 10-measurement plan,
-  // --jobs 1 vs --jobs 2 wall-time ratio (target ≤ 0.65), peak resident ÷ largest dump's arrays (≤ 2.5).
-  { name: 'check', issue: '6', run: pending('check (issue 6): --jobs 2 ÷ --jobs 1 wall time, peak memory ÷ largest dump') },
+  { name: 'check', issue: '6', run: checkSection },
   // HOOK issues 4/5: headless Chromium (playwright-core, executablePath /usr/bin/chromium, stack-recipe
   // flags), 64 shown nets, median frame time at 10 k vs 10 M changes in view (ratio ≤ 1.5, frame < 60 ms),
   // drop-to-first-traces ÷ parse time on 100 MB (≤ 1.3), delay markers ÷ engine time (≤ 1.5),
