@@ -20,7 +20,8 @@ export default defineConfig({
   preview: { host: '127.0.0.1', port: 4173, strictPort: true, headers },
   define: { __MIDRAIL_VERSION__: JSON.stringify(pkg.version) },
   worker: { format: 'es' },
-  build: { target: 'es2022' },
+  // The page builds into dist/web; the CLI builds into dist/cli (package.json `prepare`).
+  build: { target: 'es2022', outDir: 'dist/web' },
   test: {
     environment: 'node',
     include: ['test/unit/**/*.test.ts', 'test/sim/**/*.test.ts', 'test/cli/**/*.test.ts'],
