@@ -3,12 +3,13 @@
 import type { Dump, Signal } from '../model/dump';
 import { type NetRef, bitPosition } from '../model/netref';
 import { type LevelSpec, MESIAL } from './level';
+import { EdgeCollector } from './edgeCollector';
 import { logicEdges } from './logicEdges';
 import { realEdges } from './realEdges';
 import { ticksToSeconds } from './ticks';
 import { EDGE_NAMES, EdgeDir, type EdgeList, type EdgeResult, edgeListOf } from './types';
 import { unknownSpans } from './unknown';
-import { vectorBitEdges } from './vectorBitEdges';
+import { walkVectorBits } from './vectorBitEdges';
 import { vectorEdges } from './vectorEdges';
 
 export interface EdgeOptions {
@@ -45,9 +46,8 @@ function changeEdges(times: Float64Array, sig: Signal, label: string): EdgeList 
 export function edgeList(dump: Dump, ref: NetRef, opts: EdgeOptions = {}): EdgeList {
   const sig = dump.signals[ref.net.signal];
   if (ref.bit !== null) {
-    const p = bitPosition(ref.net, ref.bit);
     if (sig.kind !== 'vector') return logicEdges(dump.times, sig, ref.label);
-    return edgeListOf({ ...vectorBitEdges(dump.times, sig, ref.net, [p]).get(p)!, label: ref.label });
+    return edgeLists(dump, [ref], opts)[0];
   }
   switch (sig.kind) {
     case 'logic':
@@ -62,27 +62,38 @@ export function edgeList(dump: Dump, ref: NetRef, opts: EdgeOptions = {}): EdgeL
 }
 
 /**
+ * Slot per bit position of each vector signal whose bits are asked for (slot = index in `refs`);
+ * a bit asked for twice (or through an alias net of the same signal) is found once, in its first slot.
+ */
+export function bitSlots(dump: Dump, refs: NetRef[]): { slotsBySignal: Map<number, Int32Array>; sameAs: Int32Array } {
+  const slotsBySignal = new Map<number, Int32Array>();
+  const sameAs = new Int32Array(refs.length).fill(-1);
+  refs.forEach((ref, i) => {
+    const sig = dump.signals[ref.net.signal];
+    if (ref.bit === null || sig.kind !== 'vector') return;
+    const p = bitPosition(ref.net, ref.bit);
+    if (p < 0 || p >= sig.width) return;
+    let slotOf = slotsBySignal.get(ref.net.signal);
+    if (!slotOf) slotsBySignal.set(ref.net.signal, (slotOf = new Int32Array(sig.width).fill(-1)));
+    if (slotOf[p] < 0) slotOf[p] = i;
+    else sameAs[i] = slotOf[p];
+  });
+  return { slotsBySignal, sameAs };
+}
+
+/**
  * Edge lists of many nets and bits, in the order given. Bits of one vector are found together in one
  * pass over its changes, so searching every bit of a wide bus costs about one pass, not one per bit.
  */
 export function edgeLists(dump: Dump, refs: NetRef[], opts: EdgeOptions = {}): EdgeList[] {
-  const bitsByNet = new Map<number, number[]>();
-  refs.forEach((ref) => {
-    if (ref.bit === null || dump.signals[ref.net.signal].kind !== 'vector') return;
-    const list = bitsByNet.get(ref.net.signal) ?? [];
-    list.push(bitPosition(ref.net, ref.bit));
-    bitsByNet.set(ref.net.signal, list);
-  });
-  const found = new Map<number, Map<number, EdgeList>>();
-  return refs.map((ref) => {
+  const { slotsBySignal, sameAs } = bitSlots(dump, refs);
+  const bits = new EdgeCollector(refs.length, dump.times);
+  for (const [signal, slotOf] of slotsBySignal) walkVectorBits(dump.signals[signal], slotOf, bits);
+  return refs.map((ref, i) => {
     const sig = dump.signals[ref.net.signal];
     if (ref.bit === null || sig.kind !== 'vector') return edgeList(dump, ref, opts);
-    let perBit = found.get(ref.net.signal);
-    if (!perBit) {
-      perBit = vectorBitEdges(dump.times, sig, ref.net, bitsByNet.get(ref.net.signal)!);
-      found.set(ref.net.signal, perBit);
-    }
-    return edgeListOf({ ...perBit.get(bitPosition(ref.net, ref.bit))!, label: ref.label });
+    const slot = sameAs[i] >= 0 ? sameAs[i] : i;
+    return bits.list(slot, ref.label);
   });
 }
 

@@ -2,10 +2,12 @@
 
 export { findEdges, edgeList, edgeLists, type EdgeOptions } from './edges';
 export { logicEdges } from './logicEdges';
-export { vectorBitEdges, declaredBit } from './vectorBitEdges';
+export { vectorBitEdges, walkVectorBits, declaredBit } from './vectorBitEdges';
+export { type BitEvents } from './settle';
+export { EdgeCollector } from './edgeCollector';
 export { measureDelay, pairEdges, PAIR_KINDS, UNPAIRED_REASONS, type DelayOptions, type PairList } from './delay';
 export { measureSkew, type SkewOptions } from './skew';
-export { findGlitches, glitchTargets, netGlitches, GlitchSink, type GlitchOptions } from './glitches';
+export { findGlitches, glitchTargets, GlitchSink, PulseFinder, type GlitchOptions } from './glitches';
 export { parseLevel, levelValue, LevelSyntaxError, MESIAL, type LevelSpec } from './level';
 export { histogramStateLevels, HISTOGRAM_BINS, MIN_HISTOGRAM_SAMPLES, type StateLevels } from './stateLevels';
 export { BOUNDARY_PERCENT, LOWER_PERCENT, UPPER_PERCENT } from './realEdges';

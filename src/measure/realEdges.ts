@@ -19,8 +19,9 @@
 import type { Signal } from '../model/dump';
 import { MeasureError } from './errors';
 import { type LevelSpec, levelValue } from './level';
-import { histogramStateLevels } from './stateLevels';
+import { LevelHistogram, rangeStateLevels } from './stateLevels';
 import { EdgeDir, type EdgeList, type RealLevels, type StateMethod, edgeListOf } from './types';
+import { closeSpans, groupEnd } from './settle';
 
 /** State-boundary half-width in % of the amplitude (a usual default for IEEE 181 tools, common practice). */
 export const BOUNDARY_PERCENT = 2;
@@ -38,34 +39,38 @@ const NONE = -1;
 const LOW = 0;
 const HIGH = 1;
 
-/** Settled samples: same-timestamp changes collapsed to the last, repeated values dropped. */
-function settledSamples(times: Float64Array, sig: Signal) {
-  const n = sig.count;
-  const st = new Float64Array(n);
-  const sv = new Float64Array(n);
-  const zeroWidth: number[] = [];
-  let m = 0;
-  let i = 0;
-  while (i < n) {
-    const ti = sig.timeIndex[i];
-    const before = m > 0 ? sv[m - 1] : Number.NaN;
-    let passed = false;
-    let j = i;
-    let v = sig.reals[i];
-    while (j < n && sig.timeIndex[j] === ti) {
-      v = sig.reals[j];
-      if (m > 0 && !Object.is(v, before)) passed = true;
-      j++;
-    }
-    if (m > 0 && Object.is(v, before)) {
-      if (passed && j - i > 1) zeroWidth.push(times[ti]);
-    } else {
-      st[m] = times[ti];
-      sv[m++] = v;
-    }
-    i = j;
+/**
+ * Index of the change holding the next settled sample after the one at change `prev` (−1: the
+ * first): same-timestamp changes collapse to the last one, and a value equal to the sample before is
+ * no new sample. −1 when there is none. (Indices only, so no number is boxed if this is not inlined.)
+ */
+function nextSample(idx: Uint32Array, reals: Float64Array, prev: number, last: number): number {
+  for (let i = prev + 1; i <= last; i++) {
+    i = groupEnd(idx, i, last);
+    if (prev < 0 || !Object.is(reals[i], reals[prev])) return i;
   }
-  return { st: st.subarray(0, m), sv: sv.subarray(0, m), m, zeroWidth };
+  return -1;
+}
+
+/** Timestamps whose changes left the value where it was but passed through another: zero-width glitches. */
+function realZeroWidths(times: Float64Array, sig: Signal): number[] {
+  const out: number[] = [];
+  const idx = sig.timeIndex;
+  const reals = sig.reals;
+  const last = sig.count - 1;
+  for (let i = 0; i <= last; i++) {
+    const end = groupEnd(idx, i, last);
+    if (i > 0 && end > i && Object.is(reals[end], reals[i - 1])) {
+      for (let k = i; k < end; k++) {
+        if (!Object.is(reals[k], reals[i - 1])) {
+          out.push(times[idx[i]]);
+          break;
+        }
+      }
+    }
+    i = end;
+  }
+  return out;
 }
 
 /** Instant at which the ramp from v0 (starting at rampStart) to v1 (sampleTicks later) crosses `level`. */
@@ -73,17 +78,53 @@ function cross(rampStart: number, sampleTicks: number, v0: number, v1: number, l
   return rampStart + (sampleTicks * (level - v0)) / (v1 - v0);
 }
 
-export function realEdges(times: Float64Array, sig: Signal, label: string, endTick: number, opts: RealEdgeOptions): EdgeList {
-  const { st, sv, m, zeroWidth } = settledSamples(times, sig);
-
+/** Samples, finite samples, their range, the shortest interval between successive finite ones, the last sample's tick. */
+function sampleRange(times: Float64Array, sig: Signal): { m: number; finite: number; min: number; max: number; sampleTicks: number; lastTick: number } {
+  const idx = sig.timeIndex;
+  const reals = sig.reals;
+  const last = sig.count - 1;
+  let m = 0;
+  let finite = 0;
+  let min = Infinity;
+  let max = -Infinity;
   let sampleTicks = Infinity;
-  for (let k = 1; k < m; k++) {
-    if (Number.isFinite(sv[k]) && Number.isFinite(sv[k - 1])) {
-      const dt = st[k] - st[k - 1];
-      if (dt < sampleTicks) sampleTicks = dt;
+  let t0 = Number.NaN;
+  let v0 = Number.NaN;
+  for (let e = nextSample(idx, reals, -1, last); e >= 0; e = nextSample(idx, reals, e, last)) {
+    const t = times[idx[e]];
+    const v = reals[e];
+    if (Number.isFinite(v)) {
+      finite++;
+      if (v < min) min = v;
+      if (v > max) max = v;
+      if (m > 0 && Number.isFinite(v0) && t - t0 < sampleTicks) sampleTicks = t - t0;
     }
+    m++;
+    t0 = t;
+    v0 = v;
   }
-  if (!Number.isFinite(sampleTicks)) sampleTicks = 1;
+  return { m, finite, min, max, sampleTicks, lastTick: t0 };
+}
+
+/** Each finite sample into the histogram, weighted by how long it holds (to the next sample; the last one `lastWeight`). */
+function fillHistogram(times: Float64Array, sig: Signal, histogram: LevelHistogram, lastWeight: number): void {
+  const idx = sig.timeIndex;
+  const reals = sig.reals;
+  const last = sig.count - 1;
+  let t0 = Number.NaN;
+  let v0 = Number.NaN;
+  for (let e = nextSample(idx, reals, -1, last); e >= 0; e = nextSample(idx, reals, e, last)) {
+    const t = times[idx[e]];
+    if (Number.isFinite(v0)) histogram.add(v0, t - t0);
+    t0 = t;
+    v0 = reals[e];
+  }
+  if (Number.isFinite(v0)) histogram.add(v0, lastWeight);
+}
+
+export function realEdges(times: Float64Array, sig: Signal, label: string, endTick: number, opts: RealEdgeOptions): EdgeList {
+  const range = sampleRange(times, sig);
+  const sampleTicks = Number.isFinite(range.sampleTicks) ? range.sampleTicks : 1;
 
   let low: number;
   let high: number;
@@ -92,8 +133,13 @@ export function realEdges(times: Float64Array, sig: Signal, label: string, endTi
     ({ low, high } = opts.states);
     method = 'user';
   } else {
-    const lastWeight = m > 0 ? Math.max(endTick - st[m - 1], sampleTicks) : 0;
-    ({ low, high, method } = histogramStateLevels(sv, st, lastWeight));
+    let lv = rangeStateLevels(range.finite, range.min, range.max);
+    if (!lv) {
+      const histogram = new LevelHistogram(range.min, range.max);
+      fillHistogram(times, sig, histogram, range.m > 0 ? Math.max(endTick - range.lastTick, sampleTicks) : 0);
+      lv = histogram.levels();
+    }
+    ({ low, high, method } = lv);
   }
   const amp = high - low;
   const reference = levelValue(opts.level, low, high);
@@ -115,15 +161,62 @@ export function realEdges(times: Float64Array, sig: Signal, label: string, endTi
         `state levels ${low} and ${high} (${method}), state boundaries end at ${lowTop} and ${highBottom}`,
     );
   }
+  const found = findRealEdges(times, sig, levels);
+  const { count } = found;
+  return edgeListOf({
+    label,
+    source: 'real',
+    count,
+    ticks: found.ticks.subarray(0, count),
+    dir: found.dir.subarray(0, count),
+    transition: found.transition.subarray(0, count),
+    unknown: found.unknown,
+    unknownState: new Array<number>(found.unknown.length / 2).fill(-1),
+    zeroWidth: realZeroWidths(times, sig),
+    runts: found.runts,
+    levels,
+  });
+}
 
-  const ticks = new Float64Array(m);
-  const dir = new Uint8Array(m);
-  const transition = new Float64Array(m);
-  const unknown: number[] = [];
-  const runts: number[] = [];
-  let count = 0;
+/** Edge output that grows by doubling (a real net has far fewer edges than samples). */
+class RealEdgeOutput {
+  count = 0;
+  ticks = new Float64Array(16);
+  dir = new Uint8Array(16);
+  transition = new Float64Array(16);
+  readonly unknown: number[] = [];
+  readonly runts: number[] = [];
 
-  const { lower, upper } = levels;
+  push(tick: number, dir: number, transition: number): void {
+    if (this.count === this.ticks.length) {
+      const n = 2 * this.count;
+      const t = new Float64Array(n);
+      t.set(this.ticks);
+      this.ticks = t;
+      const d = new Uint8Array(n);
+      d.set(this.dir);
+      this.dir = d;
+      const tr = new Float64Array(n);
+      tr.set(this.transition);
+      this.transition = tr;
+    }
+    this.ticks[this.count] = tick;
+    this.dir[this.count] = dir;
+    this.transition[this.count++] = transition;
+  }
+}
+
+/** The edge state machine (rules at the top of the file) over the settled samples. */
+function findRealEdges(times: Float64Array, sig: Signal, levels: RealLevels): RealEdgeOutput {
+  const out = new RealEdgeOutput();
+  const { unknown, runts } = out;
+  const { low, high, reference, lower, upper, sampleTicks } = levels;
+  const amp = high - low;
+  const lowTop = low + levels.boundary;
+  const highBottom = high - levels.boundary;
+  const idx = sig.timeIndex;
+  const reals = sig.reals;
+  const last = sig.count - 1;
   let state = NONE;
   let firstRef = Number.NaN; // first reference crossing away from the current state
   let lastRef = Number.NaN; // last reference crossing away from it
@@ -132,10 +225,13 @@ export function realEdges(times: Float64Array, sig: Signal, label: string, endTi
   let startAtRef = Number.NaN; // lastStart as it was at lastRef
   let endAfter = Number.NaN; // first crossing of the end-side level after lastRef
   let inUnknown = false;
+  let v0 = Number.NaN; // the sample before
 
-  for (let k = 0; k < m; k++) {
-    const v = sv[k];
-    const t = st[k];
+  for (let e = nextSample(idx, reals, -1, last); e >= 0; e = nextSample(idx, reals, e, last)) {
+    const v = reals[e];
+    const t = times[idx[e]];
+    const before = v0;
+    v0 = v;
     if (!Number.isFinite(v)) {
       if (!inUnknown) unknown.push(t);
       inUnknown = true;
@@ -147,39 +243,36 @@ export function realEdges(times: Float64Array, sig: Signal, label: string, endTi
       unknown.push(t);
       inUnknown = false;
     }
-    if (amp > 0 && state !== NONE) {
-      const v0 = sv[k - 1];
+    if (!(amp > 0)) continue;
+    if (state !== NONE) {
       const rampStart = t - sampleTicks;
       if (state === LOW) {
-        if (v > v0) {
-          if (v0 < lower && lower <= v) lastStart = cross(rampStart, sampleTicks, v0, v, lower);
-          if (v0 < reference && reference <= v) {
-            const c = cross(rampStart, sampleTicks, v0, v, reference);
+        if (v > before) {
+          if (before < lower && lower <= v) lastStart = cross(rampStart, sampleTicks, before, v, lower);
+          if (before < reference && reference <= v) {
+            const c = cross(rampStart, sampleTicks, before, v, reference);
             if (Number.isNaN(firstRef)) firstRef = c;
             lastRef = c;
             startAtRef = lastStart;
             endAfter = Number.NaN;
           }
-          if (v0 < upper && upper <= v && !Number.isNaN(lastRef) && Number.isNaN(endAfter)) endAfter = cross(rampStart, sampleTicks, v0, v, upper);
-        } else if (v < v0 && v < reference && reference <= v0) lastBack = cross(rampStart, sampleTicks, v0, v, reference);
-      } else if (v < v0) {
-        if (v < upper && upper <= v0) lastStart = cross(rampStart, sampleTicks, v0, v, upper);
-        if (v < reference && reference <= v0) {
-          const c = cross(rampStart, sampleTicks, v0, v, reference);
+          if (before < upper && upper <= v && !Number.isNaN(lastRef) && Number.isNaN(endAfter)) endAfter = cross(rampStart, sampleTicks, before, v, upper);
+        } else if (v < before && v < reference && reference <= before) lastBack = cross(rampStart, sampleTicks, before, v, reference);
+      } else if (v < before) {
+        if (v < upper && upper <= before) lastStart = cross(rampStart, sampleTicks, before, v, upper);
+        if (v < reference && reference <= before) {
+          const c = cross(rampStart, sampleTicks, before, v, reference);
           if (Number.isNaN(firstRef)) firstRef = c;
           lastRef = c;
           startAtRef = lastStart;
           endAfter = Number.NaN;
         }
-        if (v < lower && lower <= v0 && !Number.isNaN(lastRef) && Number.isNaN(endAfter)) endAfter = cross(rampStart, sampleTicks, v0, v, lower);
-      } else if (v > v0 && v0 < reference && reference <= v) lastBack = cross(rampStart, sampleTicks, v0, v, reference);
+        if (v < lower && lower <= before && !Number.isNaN(lastRef) && Number.isNaN(endAfter)) endAfter = cross(rampStart, sampleTicks, before, v, lower);
+      } else if (v > before && before < reference && reference <= v) lastBack = cross(rampStart, sampleTicks, before, v, reference);
     }
-    if (!(amp > 0)) continue;
     if (state === LOW) {
       if (v >= highBottom) {
-        ticks[count] = lastRef;
-        dir[count] = EdgeDir.Rise;
-        transition[count++] = endAfter - startAtRef;
+        out.push(lastRef, EdgeDir.Rise, endAfter - startAtRef);
         state = HIGH;
         firstRef = lastRef = lastBack = lastStart = startAtRef = endAfter = Number.NaN;
       } else if (v <= lowTop) {
@@ -188,9 +281,7 @@ export function realEdges(times: Float64Array, sig: Signal, label: string, endTi
       }
     } else if (state === HIGH) {
       if (v <= lowTop) {
-        ticks[count] = lastRef;
-        dir[count] = EdgeDir.Fall;
-        transition[count++] = endAfter - startAtRef;
+        out.push(lastRef, EdgeDir.Fall, endAfter - startAtRef);
         state = LOW;
         firstRef = lastRef = lastBack = lastStart = startAtRef = endAfter = Number.NaN;
       } else if (v >= highBottom) {
@@ -200,18 +291,6 @@ export function realEdges(times: Float64Array, sig: Signal, label: string, endTi
     } else if (v <= lowTop) state = LOW;
     else if (v >= highBottom) state = HIGH;
   }
-  if (inUnknown) unknown.push(Number.NaN);
-  return edgeListOf({
-    label,
-    source: 'real',
-    count,
-    ticks: ticks.slice(0, count),
-    dir: dir.slice(0, count),
-    transition: transition.slice(0, count),
-    unknown,
-    unknownState: new Array<number>(unknown.length / 2).fill(-1),
-    zeroWidth,
-    runts,
-    levels,
-  });
+  closeSpans(unknown);
+  return out;
 }

@@ -19,6 +19,50 @@ export interface StateLevels {
 }
 
 /**
+ * The levels when the histogram does not apply: no finite sample (NaN), too few samples or a flat
+ * signal (min/max). Null when the histogram applies.
+ */
+export function rangeStateLevels(finite: number, min: number, max: number): StateLevels | null {
+  if (finite === 0) return { low: Number.NaN, high: Number.NaN, method: 'min-max' };
+  if (finite < MIN_HISTOGRAM_SAMPLES || max === min) return { low: min, high: max, method: 'min-max' };
+  return null;
+}
+
+/** Time-weighted histogram of the samples between min and max (max > min). */
+export class LevelHistogram {
+  private readonly weight = new Float64Array(HISTOGRAM_BINS);
+  private readonly sum = new Float64Array(HISTOGRAM_BINS);
+  private readonly scale: number;
+
+  constructor(
+    private readonly min: number,
+    private readonly max: number,
+  ) {
+    this.scale = HISTOGRAM_BINS / (max - min);
+  }
+
+  /** A finite sample `v` held for `w` ticks. */
+  add(v: number, w: number): void {
+    let b = Math.floor((v - this.min) * this.scale);
+    if (b >= HISTOGRAM_BINS) b = HISTOGRAM_BINS - 1;
+    this.weight[b] += w;
+    this.sum[b] += w * v;
+  }
+
+  levels(): StateLevels {
+    const { weight, sum } = this;
+    const half = HISTOGRAM_BINS / 2;
+    // Lower half scanned upward and upper half downward, so a tie goes to the bin nearest the extreme.
+    let lowBin = 0;
+    for (let b = 1; b < half; b++) if (weight[b] > weight[lowBin]) lowBin = b;
+    let highBin = HISTOGRAM_BINS - 1;
+    for (let b = HISTOGRAM_BINS - 2; b >= half; b--) if (weight[b] > weight[highBin]) highBin = b;
+    if (!(weight[lowBin] > 0) || !(weight[highBin] > 0)) return { low: this.min, high: this.max, method: 'min-max' };
+    return { low: sum[lowBin] / weight[lowBin], high: sum[highBin] / weight[highBin], method: 'histogram-mode' };
+  }
+}
+
+/**
  * values[k] holds from times[k] to times[k+1]; the last one for `lastWeight` ticks.
  * Non-finite values (NaN marks no data) are skipped.
  */
@@ -34,28 +78,12 @@ export function histogramStateLevels(values: Float64Array, times: Float64Array, 
     if (v < min) min = v;
     if (v > max) max = v;
   }
-  if (finite === 0) return { low: Number.NaN, high: Number.NaN, method: 'min-max' };
-  if (finite < MIN_HISTOGRAM_SAMPLES || max === min) return { low: min, high: max, method: 'min-max' };
-
-  const bins = HISTOGRAM_BINS;
-  const weight = new Float64Array(bins);
-  const sum = new Float64Array(bins);
-  const scale = bins / (max - min);
+  const fallback = rangeStateLevels(finite, min, max);
+  if (fallback) return fallback;
+  const histogram = new LevelHistogram(min, max);
   for (let k = 0; k < n; k++) {
     const v = values[k];
-    if (!Number.isFinite(v)) continue;
-    const w = k + 1 < n ? times[k + 1] - times[k] : lastWeight;
-    let b = Math.floor((v - min) * scale);
-    if (b >= bins) b = bins - 1;
-    weight[b] += w;
-    sum[b] += w * v;
+    if (Number.isFinite(v)) histogram.add(v, k + 1 < n ? times[k + 1] - times[k] : lastWeight);
   }
-  const half = bins / 2;
-  // Lower half scanned upward and upper half downward, so a tie goes to the bin nearest the extreme.
-  let lowBin = 0;
-  for (let b = 1; b < half; b++) if (weight[b] > weight[lowBin]) lowBin = b;
-  let highBin = bins - 1;
-  for (let b = bins - 2; b >= half; b--) if (weight[b] > weight[highBin]) highBin = b;
-  if (!(weight[lowBin] > 0) || !(weight[highBin] > 0)) return { low: min, high: max, method: 'min-max' };
-  return { low: sum[lowBin] / weight[lowBin], high: sum[highBin] / weight[highBin], method: 'histogram-mode' };
+  return histogram.levels();
 }

@@ -15,6 +15,14 @@ export function ticksToSeconds(ts: Timescale, ticks: number): number {
   return (ticks * ts.magnitude) / div;
 }
 
+/** ticksToSeconds for one timescale, with the unit looked up once (for converting many times). */
+export function secondsOf(ts: Timescale): (ticks: number) => number {
+  const div = DIVISOR[ts.unit];
+  const magnitude = ts.magnitude;
+  const seconds = ts.seconds;
+  return div === undefined ? (ticks) => ticks * seconds : (ticks) => (ticks * magnitude) / div;
+}
+
 /** Ticks for a time in seconds (may be fractional; callers compare, never index, with it). */
 export function secondsToTicks(ts: Timescale, seconds: number): number {
   const div = DIVISOR[ts.unit];

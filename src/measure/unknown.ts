@@ -9,7 +9,8 @@ function inDumpOff(dump: Dump, tick: number): boolean {
   return false;
 }
 
-export function unknownSpans(dump: Dump, list: EdgeList): UnknownSpan[] {
+/** The spans of an EdgeList, or of anything holding a label and spans in the EdgeList form. */
+export function unknownSpans(dump: Dump, list: Pick<EdgeList, 'label' | 'unknown' | 'unknownState'>): UnknownSpan[] {
   const out: UnknownSpan[] = [];
   const ts = dump.timescale;
   for (let k = 0; k + 1 < list.unknown.length; k += 2) {
