@@ -55,9 +55,11 @@ test('a saved view file brings back lanes, names, radix, cursors and zoom after 
   expect(saved.format).toBe('midrail-view');
   expect(saved.version).toBe(1);
 
-  // A fresh page with nothing remembered: the dump opens with its default lanes.
-  await page.evaluate(() => localStorage.clear());
+  // A fresh page with nothing remembered: the dump opens with its default lanes. Storage is
+  // cleared after the reload, since the page stores the view a moment after each change and a
+  // store still pending at the reload would otherwise land after the clear.
   await page.reload();
+  await page.evaluate(() => localStorage.clear());
   await loadFile(page, 'pump.vcd', pumpVcd());
   await expect(caption(page, 'clk')).toBeVisible();
   const chooser = page.waitForEvent('filechooser');
