@@ -4,6 +4,7 @@
 
 import type { BenchOptions, SectionName } from '../options';
 import { info } from '../report';
+import { browserSection } from './browser';
 import { checkSection } from './check';
 import { measureSection } from './measure';
 import { parseSection } from './parse';
@@ -23,9 +24,6 @@ export const SECTIONS: Section[] = [
   { name: 'parse', issue: '2', run: parseSection },
   { name: 'measure', issue: '3', run: measureSection },
   { name: 'check', issue: '6', run: checkSection },
-  // HOOK issues 4/5: headless Chromium (playwright-core, executablePath /usr/bin/chromium, stack-recipe
-  // flags), 64 shown nets, median frame time at 10 k vs 10 M changes in view (ratio ≤ 1.5, frame < 60 ms),
-  // drop-to-first-traces ÷ parse time on 100 MB (≤ 1.3), delay markers ÷ engine time (≤ 1.5),
-  // background glitch scan ÷ one parse (≤ 0.3).
-  { name: 'browser', issue: '4/5', run: pending('browser (issues 4/5): frame times, drop-to-traces, delay markers, glitch scan') },
+  // Issues 4/5: the built viewer in headless Chromium (sections/browser.ts, test/bench/browser/).
+  { name: 'browser', issue: '4/5', run: browserSection },
 ];
