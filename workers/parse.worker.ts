@@ -99,7 +99,9 @@ async function run(source: string, input: ReadableStream<Uint8Array>, total: num
   let lastReport = 0;
   let gzipped = false;
   const stream = await maybeGunzip(counting(input, (n) => (done += n)), () => (gzipped = true));
-  const parser = new VcdParser(source);
+  // On a cross-origin isolated page the finished arrays go on SharedArrayBuffers, so the page and
+  // the measuring worker read one copy of the dump.
+  const parser = new VcdParser(source, {}, { shared: self.crossOriginIsolated === true });
   const reader = stream.getReader();
   try {
     for (;;) {

@@ -24,6 +24,8 @@ import { type RealInfo, nearestInstant, realInfo } from './realnets';
 import { type Found, findEdge, findValue } from './seeking';
 import { type ViewFile, ViewFileError, readViewFile, writeViewFile } from './viewfile';
 import { applyView, viewOf } from './viewio';
+import type { MeasureDesk } from './measure/desk';
+import { installMeasuring } from './measure/install';
 
 const STORE_PREFIX = 'midrail.view:';
 const THEME_KEY = 'midrail.look';
@@ -67,6 +69,8 @@ export class ViewerApp implements Actions {
   private readonly cursorSheet: CursorSheet;
   private readonly laneSheet: LaneSheet;
   private readonly loader: Loader;
+  /** Measurements, glitch marks and the worst-case sheet (src/view/measure). */
+  readonly measure: MeasureDesk;
   private rangeDrag: [number, number] | null = null;
   private snapHint: number | null = null;
   private dirtyScene = true;
@@ -98,6 +102,7 @@ export class ViewerApp implements Actions {
         add: (paths) => this.addNets(paths),
         isShown: (p) => this.shownPaths.has(p),
         notice: (t) => this.notice(t),
+        badge: (p) => this.measure?.glitchBadge(p) ?? null,
       },
     );
     this.captions = new Captions(st, this.lanesEl, byId('lanes-spacer'), byId('captions'), byId('drop-line'), {
@@ -123,6 +128,19 @@ export class ViewerApp implements Actions {
       rowAt: (y) => this.rowAtY(y)?.key ?? null,
     });
     installKeys(this);
+    this.measure = installMeasuring(
+      {
+        state: st,
+        stage,
+        sheet: this.sheet,
+        notice: (t, ms) => this.notice(t, ms),
+        redraw: () => this.schedule(true, false),
+        refreshDrawer: () => this.drawer.refresh(),
+        remember: () => this.rememberView(),
+      },
+      this.lanesEl,
+      byId('sheet'),
+    );
     renderHelp(byId('help-body'));
     this.wireToolbar();
     installFileInputs({ openDump: (f) => void this.openFile(f), restoreView: (f) => void this.restoreViewFile(f) });
@@ -267,11 +285,13 @@ export class ViewerApp implements Actions {
   // ---- loading ----------------------------------------------------------------------------------
 
   openUrl(url: string): Promise<void> {
+    this.measure.nextOrigin = url;
     return this.loader.openUrl(url);
   }
 
   openFile(file: File): Promise<void> {
     this.hideError();
+    this.measure.nextOrigin = file;
     return this.loader.openFile(file);
   }
 

@@ -30,6 +30,8 @@ export interface DrawerHooks {
   add(paths: string[]): void;
   isShown(path: string): boolean;
   notice(text: string): void;
+  /** A count shown beside a net (its glitches), or null. */
+  badge?(path: string): { text: string; title: string } | null;
 }
 
 function describeWidth(net: Net, kind: string): string {
@@ -269,6 +271,7 @@ export class NetDrawer {
         h('span', { class: 'net-scope' }),
         h('span', { class: 'net-width' }),
         h('button', { class: 'net-add', type: 'button', tabindex: '-1', text: '+' }),
+        h('span', { class: 'net-badge', hidden: true }),
       );
       this.pool.push(row);
       this.spacer.append(row);
@@ -291,6 +294,11 @@ export class NetDrawer {
       const add = row.children[3] as HTMLElement;
       add.setAttribute('aria-label', `Add ${e.net.path}`);
       row.title = e.net.path;
+      const badge = row.children[4] as HTMLElement;
+      const mark = this.hooks.badge?.(e.net.path) ?? null;
+      badge.hidden = mark === null;
+      badge.textContent = mark?.text ?? '';
+      badge.title = mark?.title ?? '';
       row.classList.toggle('is-cursor', i === this.cursor);
       row.classList.toggle('is-shown', this.hooks.isShown(e.net.path));
       row.setAttribute('aria-selected', String(i === this.cursor));

@@ -6,6 +6,7 @@
 import { parseLevel } from '../measure/level';
 import { RADIXES, type Radix } from '../render/radix';
 import type { ThemeName } from '../render/theme';
+import { type MeasurePart, readMeasurePart } from './measure/viewpart';
 
 export const VIEW_FORMAT = 'midrail-view';
 export const VIEW_VERSION = 1;
@@ -51,6 +52,8 @@ export interface ViewFile {
   referenceCursor: number;
   lanes: Array<ViewLane | ViewGroup>;
   theme?: ThemeName;
+  /** Measurements (as a measurement plan), the glitch width and the worst-case sheet. */
+  measure?: MeasurePart;
 }
 
 export class ViewFileError extends Error {}
@@ -142,7 +145,7 @@ export function checkViewFile(v: unknown): ViewFile {
   if (typeof v.version !== 'number') fail('version', 'is missing');
   if (v.version > VIEW_VERSION) fail('version', `${v.version} is newer than this midrail reads (${VIEW_VERSION}); update midrail`);
   if (v.version !== VIEW_VERSION) fail('version', `${v.version} is not a known version (expected ${VIEW_VERSION})`);
-  onlyKeys(v, ['format', 'version', 'dump', 'window', 'cursors', 'activeCursor', 'referenceCursor', 'lanes', 'theme'], 'top level');
+  onlyKeys(v, ['format', 'version', 'dump', 'window', 'cursors', 'activeCursor', 'referenceCursor', 'lanes', 'theme', 'measure'], 'top level');
   const dump = str(v, 'dump', 'top level', false)!;
   if (!isObj(v.window)) fail('window', 'must be an object with start and end (seconds)');
   onlyKeys(v.window, ['start', 'end'], 'window');
@@ -187,6 +190,11 @@ export function checkViewFile(v: unknown): ViewFile {
   }
   const out: ViewFile = { format: VIEW_FORMAT, version: VIEW_VERSION, dump, window: { start, end }, cursors, activeCursor, referenceCursor, lanes };
   if (theme) out.theme = theme;
+  if (v.measure !== undefined) {
+    const m = readMeasurePart(v.measure);
+    if ('problem' in m) throw new ViewFileError(`view file: ${m.problem}`);
+    out.measure = m.part;
+  }
   return out;
 }
 

@@ -5,9 +5,22 @@ import { radixAllowed } from '../render/radix';
 import { type NetLane, type TopLane, type ViewState, newId } from './state';
 import { VIEW_FORMAT, VIEW_VERSION, type ViewFile, type ViewLane } from './viewfile';
 
+/** A panel that keeps its own part of the view (the measurements): saved with it, handed back on restore. */
+export interface ViewPart {
+  save(): ViewFile['measure'];
+  restore(part: ViewFile['measure']): void;
+}
+
+let part: ViewPart | null = null;
+
+export function keepInView(p: ViewPart): void {
+  part = p;
+}
+
 /** The saved-view file for what is shown now. */
 export function viewOf(st: ViewState): ViewFile {
   const s = st.tickSeconds;
+  const measure = part?.save();
   const laneOut = (l: NetLane): ViewLane => {
     const v: ViewLane = { net: l.path };
     if (l.bit !== null) v.bit = l.bit;
@@ -30,6 +43,7 @@ export function viewOf(st: ViewState): ViewFile {
     referenceCursor: Math.min(st.reference, Math.max(0, st.cursors.length - 1)),
     lanes: st.lanes.map((l) => (l.kind === 'net' ? laneOut(l) : { group: l.label, collapsed: l.collapsed, lanes: l.children.map(laneOut) })),
     theme: st.theme,
+    ...(measure ? { measure } : {}),
   };
 }
 
@@ -84,6 +98,7 @@ export function applyView(st: ViewState, view: ViewFile): string[] {
     st.selected.clear();
     st.focus = null;
     st.changed('lanes', 'window', 'cursors', 'selection', 'theme');
+    part?.restore(view.measure);
   });
   return missing;
 }

@@ -3,6 +3,7 @@
 // margin = max − value and value − min, a difference within 1e-12 of the operands counts as 0, an
 // item violates when its margin is below 0. Pure.
 
+import { tidy } from '../../plan/evaluate';
 import { type Limits, limitsOf } from '../../plan/limits';
 import type { MeasurementSpec } from '../../plan/types';
 import { JUDGED, type Items, type LimitValues, VIOLATES } from './types';
@@ -13,13 +14,13 @@ function distance(hi: number, lo: number): number {
   return Math.abs(d) <= 1e-12 * Math.max(Math.abs(hi), Math.abs(lo)) ? 0 : d;
 }
 
-/** The smaller distance to a limit (negative: violated); null without limits. */
+/** The smaller distance to a limit (negative: violated), to 12 digits as the plan's; null without limits. */
 export function marginOf(value: number, limits: LimitValues): number | null {
   if (limits.min === null && limits.max === null) return null;
   let m = Infinity;
   if (limits.max !== null) m = distance(limits.max, value);
   if (limits.min !== null) m = Math.min(m, distance(value, limits.min));
-  return m;
+  return tidy(m);
 }
 
 export function limitValues(spec: MeasurementSpec): LimitValues {

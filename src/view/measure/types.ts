@@ -15,6 +15,9 @@ export interface NetPick {
   bit: number | null;
 }
 
+/** Id of the background glitch scan (in sheet rows, and in plans that limit the glitch count). */
+export const GLITCH_SCAN_ID = 'glitch-scan';
+
 /** Item flags. */
 export const JUDGED = 1; // counts toward the limits (a delay's output edge matches the chosen edge)
 export const VIOLATES = 2; // breaks a limit
