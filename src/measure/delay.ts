@@ -16,7 +16,7 @@ import { edgeList } from './edges';
 import { logicSpans } from './logicEdges';
 import { lazyField } from './lazy';
 import { type LevelSpec, MESIAL } from './level';
-import { NO_STATE, STATE, closeSpans, groupEnd, isEdge, spanChange } from './settle';
+import { NO_STATE, STATE, closeSpans, isEdge, spanChange } from './settle';
 import { secondsOf, ticksToHertz, windowTicks } from './ticks';
 import {
   EDGE_NAMES,

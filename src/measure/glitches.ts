@@ -11,7 +11,7 @@
 // lists, which come nearly sorted already, and `unknown_spans` is listed on first read too.
 
 import type { Dump, Signal } from '../model/dump';
-import { type NetRef, allBitRefs } from '../model/netref';
+import { type NetRef, allBitRefs, distinctNets } from '../model/netref';
 import { EdgeCollector } from './edgeCollector';
 import { bitSlots, edgeList } from './edges';
 import { logicSpans } from './logicEdges';
@@ -35,12 +35,8 @@ export interface GlitchOptions {
 export function glitchTargets(dump: Dump, nets?: NetRef[]): NetRef[] {
   if (!nets) {
     const out = allBitRefs(dump);
-    const seen = new Set<string>();
-    for (const net of dump.nets) {
-      if (dump.signals[net.signal].kind === 'real' && !seen.has(net.path)) {
-        seen.add(net.path);
-        out.push({ net, bit: null, label: net.path });
-      }
+    for (const net of distinctNets(dump)) {
+      if (dump.signals[net.signal].kind === 'real') out.push({ net, bit: null, label: net.path });
     }
     return out;
   }

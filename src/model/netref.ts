@@ -150,13 +150,23 @@ export function bitSignal(dump: Dump, ref: NetRef): Signal {
   };
 }
 
-/** Every 1-bit target in a dump: 1-bit nets and each bit of each vector (one per distinct path). */
+/**
+ * One net per signal: where several $var lines share an identifier code (a port and the wire it
+ * connects), the shortest path stands for all of them, as in resolveNet. In declaration order.
+ */
+export function distinctNets(dump: Dump): Net[] {
+  const best = new Map<number, Net>();
+  for (const net of dump.nets) {
+    const prior = best.get(net.signal);
+    if (!prior || net.path.length < prior.path.length) best.set(net.signal, net);
+  }
+  return dump.nets.filter((n) => best.get(n.signal) === n);
+}
+
+/** Every 1-bit target in a dump: 1-bit nets and each bit of each vector, once per signal. */
 export function allBitRefs(dump: Dump): NetRef[] {
   const out: NetRef[] = [];
-  const seen = new Set<string>();
-  for (const net of dump.nets) {
-    if (seen.has(net.path)) continue;
-    seen.add(net.path);
+  for (const net of distinctNets(dump)) {
     const sig = dump.signals[net.signal];
     if (sig.kind === 'logic') out.push({ net, bit: null, label: net.path });
     else if (sig.kind === 'vector') {
@@ -169,4 +179,3 @@ export function allBitRefs(dump: Dump): NetRef[] {
   }
   return out;
 }
-

@@ -82,6 +82,20 @@ describe('glitch scan in the viewer', () => {
     expect(w.seconds).toBeCloseTo(ns(2), 15);
   });
 
+  it('with no steady clock, the default is 10 % of the shortest typical interval between changes', () => {
+    // Hand-written data whose changes come 40, 60, 50, 80, 60, 100 ticks apart, over and over:
+    // rise to rise it takes 100, 130 or 160 ticks, not steady enough to be a clock, and the
+    // median of its intervals is 60 ticks.
+    const gaps = [40, 60, 50, 80, 60, 100];
+    let body = '#0\n0!\n';
+    for (let i = 1, t = 0; i <= 20; i++) body += `#${(t += gaps[(i - 1) % gaps.length])}\n${i % 2}!\n`;
+    const noClock = parseVcd(`$timescale 1ns $end\n$var wire 1 ! data $end\n$enddefinitions $end\n${body}`, 'data.vcd');
+    const w = defaultGlitchWidth(noClock);
+    expect(w.source).toBe('fallback');
+    expect(w.periodS).toBeCloseTo(ns(60), 15);
+    expect(w.seconds).toBeCloseTo(ns(6), 15);
+  });
+
   it('below 1 ns: the three flash-select hazards and the one EEPROM decode glitch (samples/README.md)', () => {
     const { view } = glitchRun(dump, { seconds: ns(1), source: 'given', clock: null, periodS: null });
     const on = (path: string) => {

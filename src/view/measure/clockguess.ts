@@ -3,7 +3,9 @@
 // least 8 intervals between successive rises, and at least 90 % of them within 2 % of their median
 // (common practice: a free-running clock has a fixed period; gated or data nets do not). Only the
 // first 64 rises of each net are read, so guessing costs a few hundred steps per net, whatever the
-// dump's size. With no clock-like net the width is 1/1000 of the dump's length.
+// dump's size. With no clock-like net it is 10 % of the shortest typical interval between changes
+// of any 1-bit net (the median of its first 64 intervals), so only pulses far shorter than the
+// dump's usual activity are marked.
 // Pure.
 
 import { type Dump, Logic } from '../../model/dump';
@@ -54,6 +56,24 @@ export function defaultGlitchWidth(dump: Dump): WidthChoice {
   if (bestNet !== null) {
     return { seconds: ticksToSeconds(ts, best) / 10, source: 'clock', clock: bestNet, periodS: ticksToSeconds(ts, best) };
   }
-  const span = Math.max(1, dump.endTick);
-  return { seconds: ticksToSeconds(ts, span) / 1000, source: 'fallback', clock: null, periodS: null };
+  let typical = Infinity;
+  for (const net of dump.nets) {
+    const sig = dump.signals[net.signal];
+    if (sig.kind !== 'logic' || sig.count < 3) continue;
+    typical = Math.min(typical, typicalIntervalTicks(dump.times, sig.timeIndex, sig.count));
+  }
+  const ticks = Number.isFinite(typical) ? typical : Math.max(1, dump.endTick);
+  return { seconds: ticksToSeconds(ts, ticks) / 10, source: 'fallback', clock: null, periodS: ticksToSeconds(ts, ticks) };
+}
+
+/** Median interval between the first changes of a signal at distinct times, in ticks. */
+export function typicalIntervalTicks(times: Float64Array, timeIndex: Uint32Array, count: number): number {
+  const gaps: number[] = [];
+  for (let i = 1; i < count && gaps.length < RISES; i++) {
+    const g = times[timeIndex[i]] - times[timeIndex[i - 1]];
+    if (g > 0) gaps.push(g);
+  }
+  if (gaps.length === 0) return Infinity;
+  gaps.sort((a, b) => a - b);
+  return gaps[gaps.length >> 1];
 }

@@ -124,7 +124,7 @@ export class GlitchPanel {
     const w = v?.width;
     this.width.placeholder = w && g.width === null ? formatTime(w.seconds, 4) : 'default';
     if (w) {
-      const def = w.source === 'given' ? 'set by you' : w.source === 'clock' ? `default: 10% of the shortest clock-like period (${shortName(w.clock!)}, ${formatTime(w.periodS!, 4)})` : 'default: no clock-like net, so 1/1000 of the dump’s length';
+      const def = w.source === 'given' ? 'set by you' : w.source === 'clock' ? `default: 10% of the shortest clock-like period (${shortName(w.clock!)}, ${formatTime(w.periodS!, 4)})` : `default: no clock-like net, so 10% of the shortest typical interval between changes (${formatTime(w.periodS!, 4)})`;
       this.widthNote.textContent = `Width ${formatTime(w.seconds, 4)} — ${def}.`;
     } else this.widthNote.textContent = g.error ?? '';
     if (g.running) this.status.textContent = 'scanning every net…';
