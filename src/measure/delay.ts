@@ -42,6 +42,24 @@ export interface DelayOptions {
   toLevel?: LevelSpec;
   /** Longest pair kept, in seconds. */
   windowS?: number;
+  /**
+   * Pair over edge lists even for two 1-bit nets, and hand the lists and pairs to the caller
+   * (`pairListOf(result)`): a viewer that draws every pair then measures once, not twice.
+   */
+  keepLists?: boolean;
+}
+
+/** Edge lists and pairs behind a result measured with `keepLists` (not part of its JSON). */
+export interface DelayLists {
+  from: EdgeList;
+  to: EdgeList;
+  pairs: PairList;
+}
+
+const LISTS = new WeakMap<DelayResult, DelayLists>();
+
+export function pairListOf(result: DelayResult): DelayLists | undefined {
+  return LISTS.get(result);
 }
 
 export const PAIR_KINDS: readonly DelayKind[] = ['tPLH', 'tPHL', 'tPD'];
@@ -228,7 +246,7 @@ export function measureDelay(dump: Dump, opts: DelayOptions): DelayResult {
   let sums: Float64Array;
   let unpaired: number;
   let spans: UnknownSpan[];
-  if (fromSig.kind === 'logic' && toSig.kind === 'logic') {
+  if (fromSig.kind === 'logic' && toSig.kind === 'logic' && !opts.keepLists) {
     sums = newDelaySums();
     const fromSpans: Spans = { unknown: [], unknownState: [] };
     const toSpans: Spans = { unknown: [], unknownState: [] };
@@ -296,5 +314,6 @@ export function measureDelay(dump: Dump, opts: DelayOptions): DelayResult {
     }
     return out;
   });
+  if (opts.keepLists) LISTS.set(result, listedPairs());
   return result;
 }

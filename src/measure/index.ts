@@ -5,7 +5,7 @@ export { logicEdges } from './logicEdges';
 export { vectorBitEdges, walkVectorBits, declaredBit } from './vectorBitEdges';
 export { type BitEvents } from './settle';
 export { EdgeCollector } from './edgeCollector';
-export { measureDelay, pairEdges, PAIR_KINDS, UNPAIRED_REASONS, type DelayOptions, type PairList } from './delay';
+export { measureDelay, pairEdges, pairListOf, PAIR_KINDS, UNPAIRED_REASONS, type DelayLists, type DelayOptions, type PairList } from './delay';
 export { measureSkew, type SkewOptions } from './skew';
 export { findGlitches, glitchTargets, GlitchSink, PulseFinder, type GlitchOptions } from './glitches';
 export { parseLevel, levelValue, LevelSyntaxError, MESIAL, type LevelSpec } from './level';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { TIMING_CAUTION, measureDelay } from '../../src/measure';
+import { TIMING_CAUTION, measureDelay, pairListOf } from '../../src/measure';
 import { resolveNet } from '../../src/model/netref';
 import { buildDump } from './measure-dumps';
 
@@ -132,5 +132,23 @@ describe('measureDelay', () => {
     expect(r.pairs).toHaveLength(n);
     expect(r.tPLH).toMatchObject({ count: n / 2, min_s: 3e-9, max_s: 3e-9 });
     expect(r.tPHL).toMatchObject({ count: n / 2, min_s: 3e-9, max_s: 3e-9 });
+  });
+});
+
+describe('measureDelay with keepLists (one measurement for the figures and the drawing)', () => {
+  it('gives the same figures as the merged 1-bit walk, and pair lists that match the pairs', () => {
+    const nets: Parameters<typeof buildDump>[0] = [
+      { path: 'top.a', kind: 'logic', changes: [[0, '0'], [10, '1'], [20, 'x'], [25, '0'], [30, '1'], [50, '0']] },
+      { path: 'top.y', kind: 'logic', changes: [[0, '1'], [12, '0'], [27, '1'], [33, '0'], [53, '1'], [90, '0']] },
+    ];
+    const dump = buildDump(nets, { unit: 'ns' });
+    const opts = { from: resolveNet(dump, 'top.a'), to: resolveNet(dump, 'top.y'), windowS: 20e-9 };
+    const plain = measureDelay(dump, opts);
+    const kept = measureDelay(dump, { ...opts, keepLists: true });
+    expect(JSON.parse(JSON.stringify(kept))).toEqual(JSON.parse(JSON.stringify(plain)));
+    const lists = pairListOf(kept)!;
+    expect(lists.pairs.count).toBe(kept.pairs.length);
+    expect(lists.pairs.unpairedCount).toBe(kept.unpaired);
+    expect(pairListOf(plain)).toBeUndefined();
   });
 });

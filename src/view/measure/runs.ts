@@ -11,15 +11,13 @@ import {
   type GlitchResult,
   type SkewResult,
   EdgeDir,
-  edgeList,
   findGlitches,
   glitchTargets,
   measureDelay,
   measureSkew,
-  pairEdges,
+  pairListOf,
   secondsToTicks,
   ticksToSeconds,
-  windowTicks,
 } from '../../measure/index';
 import { parseLevel } from '../../measure/level';
 import { LevelMap } from '../../plan/levels';
@@ -61,12 +59,10 @@ export function delayRun(dump: Dump, spec: DelaySpec, levels?: Record<string, st
   const fromLevel = map.of(from, spec.level);
   const toLevel = map.of(to, spec.level);
   const windowS = windowOf(spec.window);
-  const result = measureDelay(dump, { from, to, fromLevel, toLevel, windowS });
-  // The pairs again as typed arrays, by the engine's own pairing rule, for drawing.
-  const fl = edgeList(dump, from, { level: fromLevel });
-  const tl = edgeList(dump, to, { level: toLevel });
+  // One measurement gives both the figures and the typed pair lists the canvas draws from.
+  const result = measureDelay(dump, { from, to, fromLevel, toLevel, windowS, keepLists: true });
+  const { from: fl, to: tl, pairs } = pairListOf(result)!;
   const ts = dump.timescale;
-  const pairs = pairEdges(fl, tl, windowS === undefined ? Infinity : windowTicks(ts, windowS));
   const items = emptyItems(pairs.count);
   const fromDir = new Uint8Array(pairs.count);
   // Kind from the output edge, as the engine names it: rise tPLH, fall tPHL, a vector or event output tPD.
