@@ -394,44 +394,21 @@ export class DumpBuilder {
     const texts = this.texts;
     const hasTexts = texts.size > 0;
     const logLen = this.logLen;
-    // 1-bit changes, the bulk of most dumps, are sorted by signal one slab at a time (a counting
-    // sort into a slab-sized buffer), then copied to their signal's arrays in runs. Writing them
-    // straight to their final places would jump between as many write streams as there are
-    // signals, which misses the caches on every change.
-    const runCount = new Int32Array(n);
-    const runEnd = new Int32Array(n);
-    const sortedStep = new Uint32Array(Math.min(SLAB, Math.max(1, logLen)));
-    const sortedCode = new Uint8Array(sortedStep.length);
     for (let s = 0, pos = 0; s < sigSlabs.length && pos < logLen; s++) {
       const sl = sigSlabs[s];
       const cl = codeSlabs[s];
       const end = Math.min(SLAB, logLen - pos);
-      runCount.fill(0);
-      for (let i = 0; i < end; i++) {
-        const k = sl[i];
-        if (kinds[k] === KIND_LOGIC) runCount[k]++;
-      }
-      for (let k = 0, at = 0; k < n; k++) {
-        at += runCount[k];
-        runEnd[k] = at;
-      }
       for (let i = 0; i < end; i++, pos++) {
         while (pos >= nextStep) {
           step++;
           nextStep = step + 1 < timeCount ? this.stepStartOf(step + 1) : Number.POSITIVE_INFINITY;
         }
         const k = sl[i];
-        const kind = kinds[k];
-        if (kind === KIND_LOGIC) {
-          // runEnd counts down from the run's end, so the run fills in file order from its start.
-          const r = --runEnd[k];
-          sortedStep[r] = step;
-          sortedCode[r] = cl[i];
-          continue;
-        }
         const t = curT[k]++;
         allT[t] = step;
-        if (kind === KIND_VECTOR) {
+        const kind = kinds[k];
+        if (kind === KIND_LOGIC) allL[curL[k]++] = cl[i];
+        else if (kind === KIND_VECTOR) {
           const w = stride[k];
           if (planeAt + w > planeUsed[planeSlab]) {
             planeSlab++;
@@ -453,20 +430,6 @@ export class DumpBuilder {
           const text = texts.get(pos);
           if (text !== undefined) this.sigs[k].texts.set(t - startT[k], text);
         }
-      }
-      // Each run was filled backwards from its end; copy it out reversed, oldest first.
-      for (let k = 0; k < n; k++) {
-        const c = runCount[k];
-        if (c === 0) continue;
-        const from = runEnd[k];
-        let t = curT[k];
-        let l = curL[k];
-        for (let r = from + c - 1; r >= from; r--) {
-          allT[t++] = sortedStep[r];
-          allL[l++] = sortedCode[r];
-        }
-        curT[k] = t;
-        curL[k] = l;
       }
       // Let the slab go as soon as it is read.
       sigSlabs[s] = EMPTY_U16;
