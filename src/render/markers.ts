@@ -321,24 +321,34 @@ export class GlitchLayer implements MarkerLayer {
           j = lowerBoundVia(it.end, d.byTarget, ctx.t0 + (Math.max(a, e) + 3) * ctx.tpp, j + 1, hi);
         }
       }
-      let last = -Infinity;
+      if (xs.length === 0) continue;
       const order = xs.length > 2 ? [...Array(xs.length / 2).keys()].sort((p, q) => xs[2 * p] - xs[2 * q]) : [0];
-      for (const p of order) {
-        if (2 * p >= xs.length) break;
-        const a = xs[2 * p];
-        const e = xs[2 * p + 1];
-        if (a - last < 3) continue;
-        last = a;
-        const l = Math.floor(a) - 1;
-        const r = Math.max(l + 3, Math.ceil(e) + 1);
-        block.rect(l, b.top, r - l, b.bottom - b.top);
-        rim.seg(l + 0.5, b.top, l + 0.5, b.bottom);
-        rim.seg(r - 0.5, b.top, r - 0.5, b.bottom);
-        // A flag above the trace, pointing down at the glitch.
-        const cx = Math.floor((l + r) / 2);
+      // Marks closer than a few pixels merge into one run: one block, its two rims and one flag,
+      // so a lane crowded with glitches costs a handful of shapes, and no glitch goes unmarked.
+      let runL = Infinity;
+      let runR = -Infinity;
+      const flush = () => {
+        if (runL === Infinity) return;
+        block.rect(runL, b.top, runR - runL, b.bottom - b.top);
+        rim.seg(runL + 0.5, b.top, runL + 0.5, b.bottom);
+        rim.seg(runR - 0.5, b.top, runR - 0.5, b.bottom);
+        // A flag above the trace, pointing down at the run.
+        const cx = Math.floor((runL + runR) / 2);
         for (let k = 0; k < 4; k++) flag.rect(cx - 3 + k, b.top - 7 + k, 7 - 2 * k, 1);
+      };
+      for (const p of order) {
+        const l = Math.floor(xs[2 * p]) - 1;
+        const r = Math.max(l + 3, Math.ceil(xs[2 * p + 1]) + 1);
+        if (l - runR < 3) {
+          runR = Math.max(runR, r);
+          continue;
+        }
+        flush();
         this.stats.drawn++;
+        runL = l;
+        runR = r;
       }
+      flush();
     }
     if (d.focus >= 0 && d.focus < it.count) {
       const xs = ctx.xOf(it.start[d.focus]);

@@ -98,4 +98,17 @@ describe('glitch flags', () => {
     layer.draw(context(450, 0.1)); // ticks 450 … 550: only 500
     expect(layer.stats.drawn).toBe(1);
   });
+
+  it('a lane crowded with glitches draws one run, not one set of shapes per glitch', () => {
+    const layer = new GlitchLayer(() => 'paper');
+    // 500 glitches two ticks apart over 1000 px (1 tick per px): every one is within 3 px of the next.
+    const n = 500;
+    const start = Float64Array.from({ length: n }, (_, i) => 2 * i);
+    const items = { count: n, start, end: start.map((t) => t + 0.5), value: new Float64Array(n), kind: new Uint8Array(n), flags: new Uint8Array(n).fill(1) };
+    layer.data = { items, targetStart: Int32Array.of(0, n), byTarget: Int32Array.from({ length: n }, (_, i) => i), rows: () => [{ key: 'to', targets: [0] }], focus: -1 };
+    const ctx = context(0, 1);
+    layer.draw(ctx);
+    expect(layer.stats.drawn).toBe(1);
+    expect(ctx.pen.primitives).toBeLessThan(10);
+  });
 });
