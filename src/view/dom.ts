@@ -25,6 +25,13 @@ export function h<K extends keyof HTMLElementTagNameMap>(tag: K, attrs: Attrs = 
   return el;
 }
 
+/** A plain button with an id, a tooltip and a click action. */
+export function button(id: string, text: string, title: string, onClick: () => void): HTMLButtonElement {
+  const b = h('button', { class: 'btn', type: 'button', id, title, text });
+  b.addEventListener('click', onClick);
+  return b;
+}
+
 export function byId<T extends HTMLElement = HTMLElement>(id: string): T {
   const el = document.getElementById(id);
   if (!el) throw new Error(`page is missing #${id}`);

@@ -3,7 +3,7 @@
 // widths (a bar filters the list) and the table of every glitch.
 
 import { formatTime } from '../../model/units';
-import { h } from '../dom';
+import { button, h } from '../dom';
 import { type Bins, binValues } from './bins';
 import { type MeasureDesk, shortName } from './desk';
 import { Histogram } from './histogram';
@@ -41,11 +41,6 @@ export class GlitchPanel {
         this.reorder();
       },
     });
-    const btn = (id: string, text: string, title: string, fn: () => void) => {
-      const b = h('button', { class: 'btn', type: 'button', id, title, text });
-      b.addEventListener('click', fn);
-      return b;
-    };
     const apply = () => {
       const text = this.width.value.trim() || null;
       // Enter applies it, and so does leaving the field: only a new width scans again.
@@ -75,10 +70,10 @@ export class GlitchPanel {
     this.max.addEventListener('change', limits);
     this.panel.append(
       h('p', { class: 'panel-lead', text: 'Every loaded net and bit is searched after loading for pulses narrower than the width below, zero-width glitches, and runts on real nets.' }),
-      h('div', { class: 'panel-row' }, h('label', { class: 'field-label' }, 'Narrower than ', this.width), btn('glitch-default', 'Default', 'Back to the default width', () => desk.setGlitchWidth(null))),
+      h('div', { class: 'panel-row' }, h('label', { class: 'field-label' }, 'Narrower than ', this.width), button('glitch-default', 'Default', 'Back to the default width', () => desk.setGlitchWidth(null))),
       this.widthNote,
       this.status,
-      h('div', { class: 'panel-row' }, btn('glitch-prev', '◂ Previous', 'Go to the previous glitch', () => desk.stepGlitch(-1)), btn('glitch-next', 'Next ▸', 'Go to the next glitch', () => desk.stepGlitch(1))),
+      h('div', { class: 'panel-row' }, button('glitch-prev', '◂ Previous', 'Go to the previous glitch', () => desk.stepGlitch(-1)), button('glitch-next', 'Next ▸', 'Go to the next glitch', () => desk.stepGlitch(1))),
       this.at,
       h('div', { class: 'm-limits' }, h('label', { class: 'field-label' }, 'Count limit min ', this.min), h('label', { class: 'field-label' }, 'max ', this.max), this.verdict),
       h('p', { class: 'panel-sub', text: 'Widths' }),
@@ -86,7 +81,7 @@ export class GlitchPanel {
       h(
         'div',
         { class: 'panel-row wrap' },
-        btn('glitch-add-all', 'Add listed to sheet', `Put the listed glitches (up to ${ADD_ALL_LIMIT}) on the worst-case sheet`, () => this.addAll()),
+        button('glitch-add-all', 'Add listed to sheet', `Put the listed glitches (up to ${ADD_ALL_LIMIT}) on the worst-case sheet`, () => this.addAll()),
       ),
       this.table.el,
     );

@@ -7,7 +7,7 @@ import { formatFrequency, formatTime } from '../../model/units';
 import { PAIR_KINDS } from '../../measure/index';
 import type { DelayStats } from '../../measure/types';
 import type { MeasurementSpec } from '../../plan/types';
-import { h } from '../dom';
+import { button, h } from '../dom';
 import type { NetLane } from '../state';
 import { type Bins, binValues } from './bins';
 import { type Entry, type MeasureDesk, shortName } from './desk';
@@ -70,11 +70,6 @@ export class MeasurePanel {
         this.reorder();
       },
     });
-    const btn = (id: string, text: string, title: string, fn: () => void) => {
-      const b = h('button', { class: 'btn', type: 'button', id, title, text });
-      b.addEventListener('click', fn);
-      return b;
-    };
     this.planInput.addEventListener('change', () => {
       const f = this.planInput.files?.[0];
       this.planInput.value = '';
@@ -89,10 +84,10 @@ export class MeasurePanel {
       h(
         'div',
         { class: 'panel-row wrap' },
-        btn('measure-add-delay', '+ Delay', 'Measure delay between two nets: the two chosen lanes, or type them below', () => this.addDelay()),
-        btn('measure-add-skew', '+ Skew', 'Measure skew across a group: the chosen lanes, or a glob typed below', () => this.addSkew()),
-        btn('plan-open', 'Open plan…', 'Run a measurement plan (midrail-plan JSON) on this dump', () => this.planInput.click()),
-        btn('plan-save', 'Save plan', 'Save these measurements and their limits as a measurement plan', () => desk.savePlan()),
+        button('measure-add-delay', '+ Delay', 'Measure delay between two nets: the two chosen lanes, or type them below', () => this.addDelay()),
+        button('measure-add-skew', '+ Skew', 'Measure skew across a group: the chosen lanes, or a glob typed below', () => this.addSkew()),
+        button('plan-open', 'Open plan…', 'Run a measurement plan (midrail-plan JSON) on this dump', () => this.planInput.click()),
+        button('plan-save', 'Save plan', 'Save these measurements and their limits as a measurement plan', () => desk.savePlan()),
         this.planInput,
       ),
       this.planNote,

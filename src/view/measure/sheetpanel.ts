@@ -3,7 +3,7 @@
 // and CSV through the same report writers as the CLI. Clicking a row goes there on the canvas.
 
 import { formatTime } from '../../model/units';
-import { h } from '../dom';
+import { button, h } from '../dom';
 import { type MeasureDesk, shortName } from './desk';
 
 const t = (s: number | null, digits = 5) => (s === null ? '' : formatTime(s, digits));
@@ -14,20 +14,15 @@ export class SheetPanel {
   private readonly count = h('span', { class: 'muted', id: 'sheet-count' });
 
   constructor(private readonly desk: MeasureDesk) {
-    const btn = (id: string, text: string, title: string, fn: () => void) => {
-      const b = h('button', { class: 'btn', type: 'button', id, title, text });
-      b.addEventListener('click', fn);
-      return b;
-    };
     this.panel.append(
       h('p', { class: 'panel-lead', text: 'Worst edges gathered from your measurements. Add rows with “Add worst to sheet” or a row’s + button.' }),
       h(
         'div',
         { class: 'panel-row wrap' },
-        btn('sheet-copy', 'Copy', 'Copy the rows as tab-separated text, ready to paste into a spreadsheet', () => void desk.copySheet()),
-        btn('sheet-xlsx', 'Export .xlsx', 'A workbook: these rows, each measurement’s full table, a summary and the provenance (dump SHA-256, settings)', () => void desk.exportSheet('xlsx')),
-        btn('sheet-csv', 'Export CSV', 'The same tables as one CSV file', () => void desk.exportSheet('csv')),
-        btn('sheet-clear', 'Clear', 'Remove every row', () => desk.clearSheet()),
+        button('sheet-copy', 'Copy', 'Copy the rows as tab-separated text, ready to paste into a spreadsheet', () => void desk.copySheet()),
+        button('sheet-xlsx', 'Export .xlsx', 'A workbook: these rows, each measurement’s full table, a summary and the provenance (dump SHA-256, settings)', () => void desk.exportSheet('xlsx')),
+        button('sheet-csv', 'Export CSV', 'The same tables as one CSV file', () => void desk.exportSheet('csv')),
+        button('sheet-clear', 'Clear', 'Remove every row', () => desk.clearSheet()),
       ),
       this.count,
       h(
