@@ -4,7 +4,7 @@
 // fields (the CLI's --json contract), so the panel shows exactly what `midrail` prints.
 // Pure types and constants: shared by the worker and the page.
 
-import type { DelayStats, SkewOffset } from '../../measure/types';
+import type { DelayResult, SkewOffset } from '../../measure/types';
 import type { MeasurementOutcome } from '../../plan/result';
 import type { ValueUnit } from '../../plan/limits';
 
@@ -64,20 +64,8 @@ interface ViewBase {
   items: Items;
 }
 
-export interface DelayFigures {
-  level: string;
-  window_s: number | null;
-  unpaired: number;
-  tPLH: DelayStats;
-  tPHL: DelayStats;
-  tPD: DelayStats;
-  tpd_s: number | null;
-  tskp_s: number | null;
-  tskp_worst_s: number | null;
-  fmax_hz: number | null;
-  caution: string;
-  unknown_spans: number;
-}
+/** The engine's delay figures without its per-item lists; unknown spans as a count. */
+export type DelayFigures = Omit<DelayResult, 'from' | 'to' | 'pairs' | 'unpaired_edges' | 'unknown_spans'> & { unknown_spans: number };
 
 export interface DelayView extends ViewBase {
   kind: 'delay';
