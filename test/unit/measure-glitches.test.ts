@@ -1,3 +1,7 @@
+// Glitch search on hand-built dumps. Expected widths are worked out by hand from the changes written
+// below: a pulse's width is the time between its two opposite edges (IEEE 181-2011 pulse duration,
+// mesial to mesial, which for logic nets is the change time; from memory), and a net changing more
+// than once at one timestamp back to where it started is a zero-width glitch (common practice).
 import { describe, expect, it } from 'vitest';
 import { MeasureError, findGlitches } from '../../src/measure';
 import { resolveNetList } from '../../src/model/netref';

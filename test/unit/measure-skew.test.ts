@@ -1,3 +1,6 @@
+// Skew on hand-built clock leaves. Expected figures are worked out by hand from the leaf delays
+// written below: per event, skew = latest − earliest edge across the group (the spread of output
+// delays, as JESD65B defines output skew for one switching event; common practice for clock trees).
 import { describe, expect, it } from 'vitest';
 import { MeasureError, measureSkew } from '../../src/measure';
 import { resolveNet, resolveNetList } from '../../src/model/netref';
