@@ -5,16 +5,16 @@
 // code; vector planes and reals go to logs of their own. Appending is sequential, so it costs
 // about what reading the bytes costs, whatever the number of signals. At finish() the counts are
 // known, so each signal's arrays are allocated at their exact size and the log is scattered into
-// them in one pass. The peak is the log (3 bytes per 1-bit change) plus the final arrays (5 bytes).
+// them in one pass. Full log slabs are parked (see parkedSlabs.ts) and handed back to the system
+// one by one as the scatter reads them, so the peak is about the final arrays (5 bytes per 1-bit
+// change), not the log (3 bytes) plus them.
 
 import type { Dump, DumpWarning, Net, Scope, Signal, SignalKind, Timescale } from './dump';
 import { wordsFor } from './dump';
+import { ParkedSlabs } from './parkedSlabs';
 
-const SLAB = 1 << 20;
-const FIRST_SLAB = 1 << 12;
-const TIME_SHIFT = 14;
-const TIME_SLAB = 1 << TIME_SHIFT;
-const TIME_MASK = TIME_SLAB - 1;
+/** Log slabs hold 2^20 changes; tests pick tiny slabs so that every slab boundary is reached. */
+const SLAB_SHIFT = 20;
 const EMPTY_U8 = new Uint8Array(0);
 const EMPTY_U16 = new Uint16Array(0);
 const EMPTY_U32 = new Uint32Array(0);
@@ -50,31 +50,34 @@ export class DumpBuilder {
   private counts = new Int32Array(64);
   private uncounted = new Int32Array(64);
 
-  // Change log: current slab (hot) and the full ones. A slab is 16-bit when it was started while
-  // fewer than 65,536 signals existed, so every index it holds fits.
+  // Change log: the hot slab being written, and the full ones parked. A slab is 16-bit when it
+  // was started while fewer than 65,536 signals existed, so every index it holds fits. Every
+  // parked slab holds exactly `slab` entries, so log position p lies in parked slab floor(p / slab).
   private logFill = 0;
   private logLen = 0;
   private wideSlab = false;
   private sig16: Uint16Array = EMPTY_U16;
   private sig32: Uint32Array = EMPTY_U32;
   private codes: Uint8Array = EMPTY_U8;
-  private fullSigs: Array<Uint16Array | Uint32Array> = [];
-  private fullCodes: Uint8Array[] = [];
-  // Vector planes and reals, in log order.
+  private parkedSigs = new ParkedSlabs();
+  private parkedWide: boolean[] = [];
+  private parkedCodes = new ParkedSlabs();
+  // Vector planes and reals, in log order (a change's plane words never straddle two slabs).
   private planeFill = 0;
   private planeSlab: Uint32Array = EMPTY_U32;
-  private planeFull: Uint32Array[] = [];
-  private planeUsed: number[] = [];
+  private parkedPlanes = new ParkedSlabs();
   private realFill = 0;
   private realSlab: Float64Array = EMPTY_F64;
-  private realFull: Float64Array[] = [];
+  private parkedReals = new ParkedSlabs();
   /** Texts (strings, vectors with states beyond 0/1/x/z) by log position. */
   private texts = new Map<number, string>();
 
   // Timestamps in slabs too (no copies while growing): the tick of each, and the log position
   // where its changes begin.
-  private timeSlabs: Float64Array[] = [];
-  private stepSlabs: Uint32Array[] = [];
+  private timeHot: Float64Array = EMPTY_F64;
+  private stepHot: Uint32Array = EMPTY_U32;
+  private parkedTimes = new ParkedSlabs();
+  private parkedSteps = new ParkedSlabs();
   private lastTick = 0;
   private timeCount = 0;
   /** Index of the current timestamp in `times`, -1 before the first `#`. */
@@ -90,8 +93,24 @@ export class DumpBuilder {
    */
   constructor(
     readonly source: string,
-    private readonly options: { shared?: boolean } = {},
-  ) {}
+    private readonly options: { shared?: boolean; slabShift?: number } = {},
+  ) {
+    const shift = options.slabShift ?? SLAB_SHIFT;
+    this.slab = 2 ** shift;
+    this.firstSlab = Math.max(1, Math.min(1 << 12, this.slab >> 2));
+    this.realSlabSize = Math.max(1, this.slab >> 2);
+    this.timeShift = Math.max(1, shift - 6);
+    this.timeSlab = 2 ** this.timeShift;
+    this.timeMask = this.timeSlab - 1;
+  }
+
+  // Slab sizes (entries): the change log, its first slab (small dumps stay small), reals, timestamps.
+  private readonly slab: number;
+  private readonly firstSlab: number;
+  private readonly realSlabSize: number;
+  private readonly timeShift: number;
+  private readonly timeSlab: number;
+  private readonly timeMask: number;
 
   get signalCount(): number {
     return this.sigs.length;
@@ -154,14 +173,19 @@ export class DumpBuilder {
   /** Moves to a timestamp; equal ticks reuse the current slot, earlier ones are the caller's error to report. */
   setTime(tick: number): void {
     if (this.current >= 0 && this.lastTick === tick) return;
-    const slot = this.timeCount & TIME_MASK;
+    const slot = this.timeCount & this.timeMask;
     if (slot === 0) {
-      this.timeSlabs.push(new Float64Array(TIME_SLAB));
-      this.stepSlabs.push(new Uint32Array(TIME_SLAB));
+      if (this.timeCount === 0) {
+        this.timeHot = new Float64Array(this.timeSlab);
+        this.stepHot = new Uint32Array(this.timeSlab);
+      } else {
+        this.parkedTimes.park(this.timeHot, this.timeSlab * 8);
+        this.parkedSteps.park(this.stepHot, this.timeSlab * 4);
+      }
     }
     if (this.logLen > 0xffffffff) throw new RangeError('more than 4,294,967,295 changes in one dump');
-    this.timeSlabs[this.timeSlabs.length - 1][slot] = tick;
-    this.stepSlabs[this.stepSlabs.length - 1][slot] = this.logLen;
+    this.timeHot[slot] = tick;
+    this.stepHot[slot] = this.logLen;
     this.lastTick = tick;
     this.current = this.timeCount++;
     this.endTick = tick;
@@ -169,9 +193,9 @@ export class DumpBuilder {
 
   private nextSlab(): number {
     const len = this.codes.length;
-    if (len > 0 && len < SLAB) {
-      // The first slab starts small (small dumps stay small) and doubles until full size.
-      const size = Math.min(SLAB, len * 4);
+    if (len > 0 && len < this.slab) {
+      // The first slab starts small (small dumps stay small) and grows until full size.
+      const size = Math.min(this.slab, len * 4);
       const codes = new Uint8Array(size);
       codes.set(this.codes);
       this.codes = codes;
@@ -183,15 +207,20 @@ export class DumpBuilder {
       }
       return len;
     }
-    if (len > 0) {
-      this.fullSigs.push(this.wideSlab ? this.sig32 : this.sig16);
-      this.fullCodes.push(this.codes);
+    const wide = this.sigs.length > 0xffff;
+    if (len === 0) {
+      this.codes = new Uint8Array(this.firstSlab);
+      if (wide) this.sig32 = new Uint32Array(this.firstSlab);
+      else this.sig16 = new Uint16Array(this.firstSlab);
+    } else {
+      // Park the full slab and write the next one into the same (already resident) arrays.
+      this.parkedSigs.park(this.wideSlab ? this.sig32 : this.sig16, this.slab * (this.wideSlab ? 4 : 2));
+      this.parkedWide.push(this.wideSlab);
+      this.parkedCodes.park(this.codes, this.slab);
+      if (wide && this.sig32.length < this.slab) this.sig32 = new Uint32Array(this.slab);
+      if (!wide && this.sig16.length < this.slab) this.sig16 = new Uint16Array(this.slab);
     }
-    const size = len === 0 ? FIRST_SLAB : SLAB;
-    this.wideSlab = this.sigs.length > 0xffff;
-    if (this.wideSlab) this.sig32 = new Uint32Array(size);
-    else this.sig16 = new Uint16Array(size);
-    this.codes = new Uint8Array(size);
+    this.wideSlab = wide;
     this.logFill = 0;
     return 0;
   }
@@ -220,30 +249,26 @@ export class DumpBuilder {
     this.append(index, counted);
     if (this.realFill === this.realSlab.length) {
       const len = this.realSlab.length;
-      if (len > 0 && len < SLAB >> 2 && this.realFull.length === 0) {
-        this.realSlab = grown(this.realSlab, Math.min(SLAB >> 2, len * 4), (n) => new Float64Array(n));
-      } else {
-        if (len > 0) this.realFull.push(this.realSlab);
-        this.realSlab = new Float64Array(len === 0 ? FIRST_SLAB : SLAB >> 2);
+      if (len > 0 && len < this.realSlabSize) this.realSlab = grown(this.realSlab, Math.min(this.realSlabSize, len * 4), (n) => new Float64Array(n));
+      else {
+        if (len > 0) this.parkedReals.park(this.realSlab, this.realFill * 8);
+        else this.realSlab = new Float64Array(this.firstSlab);
         this.realFill = 0;
       }
     }
     this.realSlab[this.realFill++] = value;
   }
 
-  /** Room for n plane words in the current plane slab (a change never straddles two slabs). */
+  /** Room for n plane words in the hot plane slab (a change never straddles two slabs). */
   private planeRoom(n: number): Uint32Array {
     if (this.planeFill + n > this.planeSlab.length) {
       const len = this.planeSlab.length;
-      if (len > 0 && len < SLAB && this.planeFull.length === 0) {
-        this.planeSlab = grown(this.planeSlab, Math.max(this.planeFill + n, Math.min(SLAB, len * 4)), (m) => new Uint32Array(m));
+      if (len > 0 && len < this.slab && this.parkedPlanes.count === 0) {
+        this.planeSlab = grown(this.planeSlab, Math.max(this.planeFill + n, Math.min(this.slab, len * 4)), (m) => new Uint32Array(m));
         return this.planeSlab;
       }
-      if (this.planeSlab.length > 0) {
-        this.planeFull.push(this.planeSlab);
-        this.planeUsed.push(this.planeFill);
-      }
-      this.planeSlab = new Uint32Array(Math.max(len === 0 ? FIRST_SLAB : SLAB, n));
+      if (len > 0) this.parkedPlanes.park(this.planeSlab, this.planeFill * 4);
+      if (len < n || len === 0) this.planeSlab = new Uint32Array(Math.max(len === 0 ? this.firstSlab : this.slab, n));
       this.planeFill = 0;
     }
     return this.planeSlab;
@@ -289,44 +314,44 @@ export class DumpBuilder {
     this.pushVector(index, new Uint32Array(words), new Uint32Array(words).fill(0xffffffff), null, counted);
   }
 
-  /** Signal index of log entry `pos`. */
-  private logSignal(pos: number): number {
-    const k = Math.floor(pos / SLAB);
-    const slab = k < this.fullSigs.length ? this.fullSigs[k] : this.wideSlab ? this.sig32 : this.sig16;
-    return slab[pos % SLAB];
+  /** Log position of the hot slab's first entry. */
+  private get hotStart(): number {
+    return this.parkedSigs.count * this.slab;
   }
 
-  /** Log position where timestamp j's changes begin. */
-  private stepStartOf(j: number): number {
-    return this.stepSlabs[j >>> TIME_SHIFT][j & TIME_MASK];
+  /** Log position where the current timestamp's changes begin (it is always in the hot slab). */
+  private get currentStepStart(): number {
+    return this.stepHot[this.current & this.timeMask];
   }
 
   /** Removes every change at the current timestamp (used when a dump is cut off mid-step). */
   dropCurrentStep(): void {
     if (this.current < 0) return;
-    const from = this.stepStartOf(this.current);
+    const from = this.currentStepStart;
     for (let pos = this.logLen - 1; pos >= from; pos--) {
-      const k = this.logSignal(pos);
+      if (pos < this.hotStart) {
+        // Step back into the previous slab.
+        const wide = this.parkedWide.pop()!;
+        if (wide && this.sig32.length < this.slab) this.sig32 = new Uint32Array(this.slab);
+        if (!wide && this.sig16.length < this.slab) this.sig16 = new Uint16Array(this.slab);
+        this.parkedSigs.popInto(wide ? this.sig32 : this.sig16);
+        this.parkedCodes.popInto(this.codes);
+        this.wideSlab = wide;
+      }
+      const at = pos - this.hotStart;
+      const k = this.wideSlab ? this.sig32[at] : this.sig16[at];
       this.counts[k]--;
       this.texts.delete(pos);
       const kind = this.kinds[k];
       if (kind === KIND_REAL) this.realFill--;
       else if (kind === KIND_VECTOR) this.planeFill -= 2 * this.words[k];
-      if (pos % SLAB === 0 && pos > 0) {
-        // Step back into the previous slab.
-        this.codes = this.fullCodes.pop()!;
-        const prev = this.fullSigs.pop()!;
-        this.wideSlab = prev instanceof Uint32Array;
-        if (this.wideSlab) this.sig32 = prev as Uint32Array;
-        else this.sig16 = prev as Uint16Array;
-      }
     }
-    // Reals and planes dropped here all lie in their current slabs unless a step spans slabs,
+    // Reals and planes dropped here all lie in their hot slabs unless a step spans slabs,
     // which needs more than a million changes in one time step; clamp rather than misplace.
     if (this.realFill < 0) this.realFill = 0;
     if (this.planeFill < 0) this.planeFill = 0;
     this.logLen = from;
-    this.logFill = from % SLAB === 0 && from > 0 ? SLAB : from % SLAB;
+    this.logFill = from - this.hotStart;
   }
 
   warn(line: number, offset: number, message: string): void {
@@ -357,84 +382,120 @@ export class DumpBuilder {
     const allL = new Uint8Array(alloc(nL));
     const allP = new Uint32Array(alloc(nP * 4));
     const allR = new Float64Array(alloc(nR * 8));
-    // Per signal, where its part of each buffer starts; the scatter writes through cursors into
-    // the four flat arrays, so no per-signal array object is touched per change.
+    // Per signal, where its part of each buffer starts. A change's place in the logic and real
+    // arrays follows from its place in the time index (offL, offR), so the scatter keeps one
+    // cursor per signal, plus one for vector planes, and touches no per-signal object.
     const startT = new Int32Array(n);
     const curT = new Int32Array(n);
-    const curL = new Int32Array(n);
+    const offL = new Int32Array(n);
+    const offR = new Int32Array(n);
     const curP = new Int32Array(n);
-    const curR = new Int32Array(n);
     const stride = new Int32Array(n);
     for (let k = 0, aT = 0, aL = 0, aP = 0, aR = 0; k < n; k++) {
       const c = this.counts[k];
       startT[k] = curT[k] = aT;
-      curL[k] = aL;
+      offL[k] = aL - aT;
+      offR[k] = aR - aT;
       curP[k] = aP;
-      curR[k] = aR;
       stride[k] = 2 * words[k];
       aT += c;
       if (kinds[k] === KIND_LOGIC) aL += c;
       else if (kinds[k] === KIND_VECTOR) aP += c * 2 * words[k];
       else if (kinds[k] === KIND_REAL) aR += c;
     }
-    const sigSlabs = [...this.fullSigs, this.wideSlab ? this.sig32 : this.sig16];
-    const codeSlabs = [...this.fullCodes, this.codes];
-    const planeSlabs = [...this.planeFull, this.planeSlab];
-    const planeUsed = [...this.planeUsed, this.planeFill];
-    const realSlabs = [...this.realFull, this.realSlab];
-    this.fullSigs = [];
-    this.fullCodes = [];
-    let planeSlab = 0;
+    // The hot slabs are parked too, so that every slab is read the same way: copied back into
+    // the hot arrays (already resident, and as long as any parked slab) and released at once.
+    if (this.logFill > 0) {
+      this.parkedSigs.park(this.wideSlab ? this.sig32 : this.sig16, this.logFill * (this.wideSlab ? 4 : 2));
+      this.parkedWide.push(this.wideSlab);
+      this.parkedCodes.park(this.codes, this.logFill);
+    }
+    if (this.planeFill > 0) this.parkedPlanes.park(this.planeSlab, this.planeFill * 4);
+    if (this.realFill > 0) this.parkedReals.park(this.realSlab, this.realFill * 8);
+    const slabs = this.parkedSigs.count;
+    const longest = Math.max(this.codes.length, this.sig16.length, this.sig32.length);
+    const scratch16 = this.sig16.length >= longest || !this.parkedWide.includes(false) ? this.sig16 : new Uint16Array(longest);
+    const scratch32 = this.sig32.length >= longest || !this.parkedWide.includes(true) ? this.sig32 : new Uint32Array(longest);
+    const scratchCodes = this.codes;
+    let planeSource = -1;
+    let planeUsed = 0;
     let planeAt = 0;
-    let realSlab = 0;
+    const planes = this.planeSlab;
+    const nextPlanes = (): void => {
+      planeUsed = this.parkedPlanes.takeInto(++planeSource, planes) >> 2;
+      planeAt = 0;
+    };
+    let realSource = -1;
+    let realUsed = 0;
     let realAt = 0;
-    let step = 0;
+    const reals = this.realSlab;
+    const nextReals = (): void => {
+      realUsed = this.parkedReals.takeInto(++realSource, reals) >> 3;
+      realAt = 0;
+    };
     const timeCount = this.timeCount;
-    let nextStep = timeCount > 1 ? this.stepStartOf(1) : Number.POSITIVE_INFINITY;
     const texts = this.texts;
     const hasTexts = texts.size > 0;
     const logLen = this.logLen;
-    for (let s = 0, pos = 0; s < sigSlabs.length && pos < logLen; s++) {
-      const sl = sigSlabs[s];
-      const cl = codeSlabs[s];
-      const end = Math.min(SLAB, logLen - pos);
-      for (let i = 0; i < end; i++, pos++) {
+    // Where each timestamp's changes begin, read in order from the parked step slabs.
+    const parkedSteps = this.parkedSteps.count;
+    const stepScratch = parkedSteps > 0 ? new Uint32Array(this.timeSlab) : EMPTY_U32;
+    let stepSlab = -1;
+    let steps: Uint32Array = EMPTY_U32;
+    const stepStartOf = (j: number): number => {
+      if (j >>> this.timeShift !== stepSlab) {
+        stepSlab = j >>> this.timeShift;
+        if (stepSlab < parkedSteps) this.parkedSteps.takeInto(stepSlab, (steps = stepScratch));
+        else steps = this.stepHot;
+      }
+      return steps[j & this.timeMask];
+    };
+    let step = 0;
+    let nextStep = timeCount > 1 ? stepStartOf(1) : logLen;
+    for (let s = 0, pos = 0; s < slabs && pos < logLen; s++) {
+      const sl = this.parkedWide[s] ? scratch32 : scratch16;
+      this.parkedSigs.takeInto(s, sl);
+      this.parkedCodes.takeInto(s, scratchCodes);
+      const cl = scratchCodes;
+      const slabEnd = pos + Math.min(this.slab, logLen - pos);
+      const slabStart = pos;
+      while (pos < slabEnd) {
+        // One time step (or the part of it in this slab) at a time.
         while (pos >= nextStep) {
           step++;
-          nextStep = step + 1 < timeCount ? this.stepStartOf(step + 1) : Number.POSITIVE_INFINITY;
+          nextStep = step + 1 < timeCount ? stepStartOf(step + 1) : logLen;
         }
-        const k = sl[i];
-        const t = curT[k]++;
-        allT[t] = step;
-        const kind = kinds[k];
-        if (kind === KIND_LOGIC) allL[curL[k]++] = cl[i];
-        else if (kind === KIND_VECTOR) {
-          const w = stride[k];
-          if (planeAt + w > planeUsed[planeSlab]) {
-            planeSlab++;
-            planeAt = 0;
+        const runEnd = nextStep < slabEnd ? nextStep : slabEnd;
+        for (let i = pos - slabStart, end = runEnd - slabStart; i < end; i++) {
+          const k = sl[i];
+          const t = curT[k]++;
+          allT[t] = step;
+          const kind = kinds[k];
+          if (kind === KIND_LOGIC) allL[t + offL[k]] = cl[i];
+          else if (kind === KIND_VECTOR) {
+            const w = stride[k];
+            if (planeAt + w > planeUsed) nextPlanes();
+            const at = curP[k];
+            for (let q = 0; q < w; q++) allP[at + q] = planes[planeAt + q];
+            curP[k] = at + w;
+            planeAt += w;
+          } else if (kind === KIND_REAL) {
+            if (realAt === realUsed) nextReals();
+            allR[t + offR[k]] = reals[realAt++];
           }
-          const src = planeSlabs[planeSlab];
-          const at = curP[k];
-          for (let q = 0; q < w; q++) allP[at + q] = src[planeAt + q];
-          curP[k] = at + w;
-          planeAt += w;
-        } else if (kind === KIND_REAL) {
-          if (realAt === realSlabs[realSlab].length) {
-            realSlab++;
-            realAt = 0;
+          if (hasTexts) {
+            const text = texts.get(slabStart + i);
+            if (text !== undefined) this.sigs[k].texts.set(t - startT[k], text);
           }
-          allR[curR[k]++] = realSlabs[realSlab][realAt++];
         }
-        if (hasTexts) {
-          const text = texts.get(pos);
-          if (text !== undefined) this.sigs[k].texts.set(t - startT[k], text);
-        }
+        pos = runEnd;
       }
-      // Let the slab go as soon as it is read.
-      sigSlabs[s] = EMPTY_U16;
-      codeSlabs[s] = EMPTY_U8;
     }
+    this.parkedSigs.clear();
+    this.parkedCodes.clear();
+    this.parkedPlanes.clear();
+    this.parkedReals.clear();
+    this.parkedWide = [];
     for (let k = 0, aT = 0, aL = 0, aP = 0, aR = 0; k < n; k++) {
       const sig = this.sigs[k];
       const c = this.counts[k];
@@ -448,19 +509,18 @@ export class DumpBuilder {
     }
     const changes = this.changes;
     const times = new Float64Array(alloc(this.timeCount * 8));
-    for (let j = 0, at = 0; at < this.timeCount; j++, at += TIME_SLAB) {
-      times.set(this.timeSlabs[j].subarray(0, Math.min(TIME_SLAB, this.timeCount - at)), at);
-    }
-    this.timeSlabs = [];
-    this.stepSlabs = [];
+    const parkedTimes = this.parkedTimes.count;
+    for (let j = 0; j < parkedTimes; j++) this.parkedTimes.takeInto(j, times.subarray(j * this.timeSlab));
+    times.set(this.timeHot.subarray(0, this.timeCount - parkedTimes * this.timeSlab), parkedTimes * this.timeSlab);
+    this.parkedTimes.clear();
+    this.parkedSteps.clear();
+    this.timeHot = EMPTY_F64;
+    this.stepHot = EMPTY_U32;
     this.sig16 = EMPTY_U16;
     this.sig32 = EMPTY_U32;
     this.codes = EMPTY_U8;
     this.planeSlab = EMPTY_U32;
     this.realSlab = EMPTY_F64;
-    this.planeFull = [];
-    this.planeUsed = [];
-    this.realFull = [];
     this.texts = new Map();
     return {
       source: this.source,

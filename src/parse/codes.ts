@@ -1,31 +1,28 @@
 // Identifier code → signal index, looked up straight from the bytes of a value change.
 // Codes are 1+ printable ASCII characters 33..126 (IEEE 1364-2005 §18.2.1). Short codes
 // (the common case) are turned into a number without making a string: one- and two-character
-// codes index flat tables, three to seven characters a Map keyed by a base-95 number whose
-// digits are 1..94 (so lengths never collide), longer ones a Map keyed by the text. Maps,
-// not objects, so codes like `__proto__` are ordinary keys.
+// codes index flat tables by their raw bytes (256 and 65,536 entries, so the parser's hot loop
+// can index them with any byte and no range check; bytes outside 33..126 hold -1), three to
+// seven characters a Map keyed by a base-95 number whose digits are 1..94 (so lengths never
+// collide), longer ones a Map keyed by the text. Maps, not objects, so codes like `__proto__`
+// are ordinary keys.
 
 const SPAN = 94;
 const MAX_NUMERIC_LENGTH = 7;
 
 export class CodeTable {
-  private one = new Int32Array(SPAN).fill(-1);
-  private two = new Int32Array(SPAN * SPAN).fill(-1);
+  /** One-character codes by byte. */
+  readonly one = new Int32Array(256).fill(-1);
+  /** Two-character codes by `first << 8 | second`. */
+  readonly two = new Int32Array(65536).fill(-1);
   private numeric = new Map<number, number>();
   private text = new Map<string, number>();
 
   /** Signal index for code bytes [s, e), or -1 when unknown or not printable ASCII. */
   lookup(buf: Uint8Array, s: number, e: number): number {
     const n = e - s;
-    if (n === 1) {
-      const c = buf[s] - 33;
-      return c >= 0 && c < SPAN ? this.one[c] : -1;
-    }
-    if (n === 2) {
-      const a = buf[s] - 33;
-      const b = buf[s + 1] - 33;
-      return a >= 0 && a < SPAN && b >= 0 && b < SPAN ? this.two[a * SPAN + b] : -1;
-    }
+    if (n === 1) return this.one[buf[s]];
+    if (n === 2) return this.two[(buf[s] << 8) | buf[s + 1]];
     if (n <= MAX_NUMERIC_LENGTH && n > 0) {
       let key = 0;
       for (let i = s; i < e; i++) {
@@ -55,8 +52,8 @@ export class CodeTable {
     const bytes = asciiBytes(code);
     if (!bytes || bytes.length === 0) return false;
     const n = bytes.length;
-    if (n === 1) this.one[bytes[0] - 33] = index;
-    else if (n === 2) this.two[(bytes[0] - 33) * SPAN + (bytes[1] - 33)] = index;
+    if (n === 1) this.one[bytes[0]] = index;
+    else if (n === 2) this.two[(bytes[0] << 8) | bytes[1]] = index;
     else if (n <= MAX_NUMERIC_LENGTH) {
       let key = 0;
       for (const b of bytes) key = key * 95 + (b - 32);

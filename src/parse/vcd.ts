@@ -32,6 +32,8 @@ SCALAR[104] = SCALAR[72] = Logic.WeakH; // h H
 SCALAR[45] = Logic.DontCare; // -
 
 const MAX_EXACT_TICK = 2 ** 53;
+/** The hot loop starts no token closer than this to a chunk's end (see bodyRun). */
+const RUN_MARGIN = 64;
 const TEXT = new TextDecoder('utf-8');
 
 /** Body keywords, compared as bytes after the `$`. */
@@ -91,12 +93,18 @@ export class VcdParser {
   /** Per signal: 1 when it stores Logic codes (1-bit nets and events), for the scalar hot path. */
   private logicKinds = new Uint8Array(64);
   private unknownPlane = new Uint32Array(4);
+  /** Second result of packWord, and whether it met states beyond 0/1/x/z. */
+  private packUnknown = 0;
+  private packExotic = false;
 
-  /** `storage.shared` puts the finished arrays on SharedArrayBuffers (see DumpBuilder). */
+  /**
+   * `storage.shared` puts the finished arrays on SharedArrayBuffers; `storage.slabShift` sets the
+   * change-log slab size (tests only; see DumpBuilder).
+   */
   constructor(
     readonly source: string,
     limits: Partial<VcdLimits> = {},
-    storage: { shared?: boolean } = {},
+    storage: { shared?: boolean; slabShift?: number } = {},
   ) {
     this.b = new DumpBuilder(source, storage);
     this.limits = { ...DEFAULT_LIMITS, ...limits };
@@ -129,7 +137,14 @@ export class VcdParser {
     }
     const base = this.base;
     const maxLine = this.limits.maxLineBytes;
+    const runEnd = n - RUN_MARGIN;
     while (i < n) {
+      // Most of a dump is plain value changes and timestamps: a tight loop takes those, and
+      // this general path takes one token at a time wherever that loop stops.
+      if (i < runEnd && this.mode === Mode.Body && this.pendingKind === 0 && this.block < BodyBlock.Comment) {
+        i = this.bodyRun(chunk, i, n, runEnd);
+        if (i >= n) break;
+      }
       let c = chunk[i];
       // Skip whitespace, counting lines.
       while (c <= 32) {
@@ -175,6 +190,9 @@ export class VcdParser {
         let e2 = i + 1;
         while (e2 < n && chunk[e2] > 32) e2++;
         if (e2 < n && start + 1 < i) {
+          // Errors about the value point at the value, errors about the code at the code.
+          this.notePending();
+          this.tokenOffset = base + i + 1;
           this.vectorChange(chunk, start + 1, i, i + 1, e2);
           i = e2;
           continue;
@@ -183,6 +201,105 @@ export class VcdParser {
       this.token(chunk, start, i);
     }
     this.base += n;
+  }
+
+  /**
+   * The hot loop: whitespace, scalar changes of 1-bit nets, `b<digits> <code>`, `r<number> <code>`
+   * and timestamps, with line bookkeeping in locals. It returns where it stopped: at `runEnd`, or
+   * at the first token it does not take (keywords, errors, anything unusual), which the general
+   * path then reads and reports exactly as it always has. Tokens are only started before
+   * `runEnd`, so short ones need no bounds checks; long ones are checked against `n`.
+   */
+  private bodyRun(p: Uint8Array, i: number, n: number, runEnd: number): number {
+    const base = this.base;
+    const maxLine = this.limits.maxLineBytes;
+    const one = this.codes.one;
+    const two = this.codes.two;
+    const logicKinds = this.logicKinds;
+    const b = this.b;
+    let line = this.line;
+    let lineStart = this.lineStart;
+    while (i < runEnd) {
+      const c = p[i];
+      if (c <= 32) {
+        if (c === 10) {
+          line++;
+          lineStart = base + i + 1;
+        } else if (c !== 32 && c !== 13 && c !== 9) break;
+        i++;
+        continue;
+      }
+      if (base + i - lineStart > maxLine - RUN_MARGIN) break;
+      const code = SCALAR[c];
+      if (code >= 0) {
+        // `0!`: the identifier code runs to the next whitespace.
+        const a = p[i + 1];
+        if (a <= 32) break;
+        const a2 = p[i + 2];
+        let sig: number;
+        let e: number;
+        if (a2 <= 32) {
+          sig = one[a];
+          e = i + 2;
+        } else if (p[i + 3] <= 32) {
+          sig = two[(a << 8) | a2];
+          e = i + 3;
+        } else {
+          e = i + 3;
+          while (e < n && p[e] > 32) e++;
+          if (e >= n) break;
+          sig = this.codes.lookup(p, i + 1, e);
+        }
+        if (sig < 0 || logicKinds[sig] !== 1) break;
+        b.pushLogic(sig, code);
+        i = e;
+        continue;
+      }
+      if (c === 35) {
+        // `#<digits>`; anything odd (too long, not digits, backwards, inside a section) is left
+        // to the general path, which reports it.
+        let t = 0;
+        let e = i + 1;
+        let d = p[e] - 48;
+        if (d < 0 || d > 9) break;
+        do {
+          t = t * 10 + d;
+          d = p[++e] - 48;
+        } while (d >= 0 && d <= 9 && e - i < 16);
+        if (p[e] > 32 || (this.sawTime && t < b.currentTick) || (this.block !== BodyBlock.None && this.block !== BodyBlock.DumpOff)) break;
+        this.sawTime = true;
+        this.lastTimeLine = line;
+        b.setTime(t);
+        i = e;
+        continue;
+      }
+      if (c === 98 || c === 66 || c === 114 || c === 82) {
+        // `b1010 <code>` or `r1.5 <code>`: value, one space, code, all inside this chunk.
+        let de = i + 1;
+        while (de < n && p[de] > 32) de++;
+        if (de + 1 >= n || p[de] !== 32 || p[de + 1] <= 32 || de === i + 1) break;
+        let ce = de + 1;
+        while (ce < n && p[ce] > 32) ce++;
+        if (ce >= n || base + ce - lineStart > maxLine) break;
+        this.pendingLine = this.tokenLine = line;
+        this.pendingOffset = base + i;
+        this.tokenOffset = base + de + 1;
+        if (c === 98 || c === 66) {
+          this.vectorChange(p, i + 1, de, de + 1, ce);
+        } else {
+          const sig = this.codes.lookup(p, de + 1, ce);
+          const v = sig >= 0 && this.b.signal(sig).kind === 'real' ? decimalReal(p, i + 1, de) : null;
+          if (v === null) break;
+          b.pushReal(sig, v);
+        }
+        i = ce;
+        continue;
+      }
+      break;
+    }
+    this.line = line;
+    this.lineStart = lineStart;
+    return i;
   }
 
   private appendCarry(buf: Uint8Array, s: number, e: number): void {
@@ -325,7 +442,10 @@ export class VcdParser {
       if (sig < 0) return this.unknownCode(buf, s + 1, e);
       const kind = this.b.signal(sig).kind;
       if (kind === 'logic' || kind === 'event') this.b.pushLogic(sig, code);
-      else if (kind === 'vector') this.pushVectorDigits(sig, buf, s, s + 1);
+      else if (kind === 'vector') {
+        this.notePending();
+        this.pushVectorDigits(sig, buf, s, s + 1);
+      }
       else this.fail(`scalar value for ${kind} net '${this.nameOf(sig)}'`, kind === 'real' ? 'r<number> <code>' : 's<text> <code>');
       return;
     }
@@ -474,23 +594,21 @@ export class VcdParser {
     const sk = this.b.signal(sig).kind;
     if (kind === 98) {
       if (sk === 'vector' || sk === 'logic' || sk === 'event') return this.pushVectorDigits(sig, this.pendingDigits, 0, this.pendingLen);
-      this.fail(`binary value for ${sk} net '${this.nameOf(sig)}'`, sk === 'real' ? 'r<number> <code>' : 's<text> <code>');
+      this.fail(`binary value for ${sk} net '${this.nameOf(sig)}'`, sk === 'real' ? 'r<number> <code>' : 's<text> <code>', this.pendingLine, this.pendingOffset);
     } else if (kind === 114) {
       if (sk === 'real') return this.b.pushReal(sig, this.pendingReal);
-      this.fail(`real value for ${sk} net '${this.nameOf(sig)}'`, 'b<digits> <code> or a scalar value');
+      this.fail(`real value for ${sk} net '${this.nameOf(sig)}'`, 'b<digits> <code> or a scalar value', this.pendingLine, this.pendingOffset);
     } else {
       this.b.pushText(sig, this.pendingText);
     }
   }
 
   private vectorChange(buf: Uint8Array, ds: number, de: number, cs: number, ce: number): void {
-    if (de - ds > this.limits.maxVectorWidth) this.fail(`vector value of ${de - ds} digits is over the limit of ${this.limits.maxVectorWidth} bits`, 'a narrower vector');
+    if (de - ds > this.limits.maxVectorWidth) this.fail(`vector value of ${de - ds} digits is over the limit of ${this.limits.maxVectorWidth} bits`, 'a narrower vector', this.pendingLine, this.pendingOffset);
     const sig = this.codes.lookup(buf, cs, ce);
     if (sig < 0) return this.unknownCode(buf, cs, ce);
     const sk = this.b.signal(sig).kind;
-    if (sk === 'real' || sk === 'string') this.fail(`binary value for ${sk} net '${this.nameOf(sig)}'`, sk === 'real' ? 'r<number> <code>' : 's<text> <code>');
-    this.pendingLine = 0;
-    this.pendingOffset = 0;
+    if (sk === 'real' || sk === 'string') this.fail(`binary value for ${sk} net '${this.nameOf(sig)}'`, sk === 'real' ? 'r<number> <code>' : 's<text> <code>', this.pendingLine, this.pendingOffset);
     this.pushVectorDigits(sig, buf, ds, de);
   }
 
@@ -522,26 +640,16 @@ export class VcdParser {
     }
     const val = this.valuePlane;
     const unk = this.unknownPlane;
-    val.fill(0, 0, words);
-    unk.fill(0, 0, words);
-    let exotic = false;
-    const len = e - s;
-    for (let j = 0; j < len; j++) {
-      const bit = len - 1 - j;
-      const code = SCALAR[buf[s + j]];
-      if (code < 0) this.badDigit(buf[s + j]);
-      const w = bit >>> 5;
-      const m = 1 << (bit & 31);
-      if (code === Logic.L1) val[w] |= m;
-      else if (code === Logic.X) unk[w] |= m;
-      else if (code === Logic.Z) {
-        unk[w] |= m;
-        val[w] |= m;
-      } else if (code !== Logic.L0) {
-        exotic = true;
-        unk[w] |= m;
-      }
+    // 32 digits per plane word, from the rightmost (bit 0) leftwards.
+    this.packExotic = false;
+    let to = e;
+    for (let w = 0; w < words; w++) {
+      const from = to - 32 > s ? to - 32 : s;
+      val[w] = from < to ? this.packWord(buf, from, to) : 0;
+      unk[w] = from < to ? this.packUnknown : 0;
+      to = from;
     }
+    const len = e - s;
     const lead = SCALAR[buf[s]];
     if (len < width && (lead === Logic.X || lead === Logic.Z)) {
       for (let bit = len; bit < width; bit++) {
@@ -552,7 +660,7 @@ export class VcdParser {
       }
     }
     let text: string | null = null;
-    if (exotic) {
+    if (this.packExotic) {
       const written = writtenStates(buf, s, e);
       const pad = lead === Logic.L0 || lead === Logic.L1 ? '0' : written[0];
       text = pad.repeat(width - len) + written;
@@ -560,11 +668,13 @@ export class VcdParser {
     this.b.pushVector(sig, val, unk, text);
   }
 
-  /** Vectors of up to 32 bits: both planes fit one word each (Logic codes 0..3 are v + 2u). */
-  private pushNarrowVector(sig: number, width: number, buf: Uint8Array, s: number, e: number): void {
+  /**
+   * Packs up to 32 value digits [s, e) into a value word (returned) and an unknown word
+   * (`packUnknown`); Logic codes 0..3 are v + 2u. States beyond 0/1/x/z set `packExotic`.
+   */
+  private packWord(buf: Uint8Array, s: number, e: number): number {
     let v = 0;
     let u = 0;
-    let exotic = false;
     for (let k = s; k < e; k++) {
       const ch = buf[k];
       // 0 and 1 first: nearly every digit of a real dump is one of them.
@@ -581,7 +691,7 @@ export class VcdParser {
       const code = SCALAR[ch];
       if (code < 0) this.badDigit(ch);
       if (code > 3) {
-        exotic = true;
+        this.packExotic = true;
         v <<= 1;
         u = (u << 1) | 1;
       } else {
@@ -589,6 +699,15 @@ export class VcdParser {
         u = (u << 1) | (code >> 1);
       }
     }
+    this.packUnknown = u >>> 0;
+    return v >>> 0;
+  }
+
+  /** Vectors of up to 32 bits: both planes fit one word each. */
+  private pushNarrowVector(sig: number, width: number, buf: Uint8Array, s: number, e: number): void {
+    this.packExotic = false;
+    let v = this.packWord(buf, s, e);
+    let u = this.packUnknown;
     const len = e - s;
     const lead = SCALAR[buf[s]];
     let text: string | null = null;
@@ -600,7 +719,7 @@ export class VcdParser {
         if (lead === Logic.Z) v |= fill;
       }
     }
-    if (exotic) {
+    if (this.packExotic) {
       const pad = lead === Logic.L0 || lead === Logic.L1 ? '0' : LOGIC_CHARS[lead];
       text = pad.repeat(width - len) + writtenStates(buf, s, e);
     }
@@ -648,6 +767,61 @@ export class VcdParser {
     }
     return b.finish(this.base, truncated);
   }
+}
+
+const EXACT_POWERS = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+
+/**
+ * A plain decimal real (`-1.25e-3`) read from bytes, or null for anything else (the caller then
+ * takes the general path). Exact: a mantissa below 2^53 times or over an exactly representable
+ * power of ten (10^0..10^22) is one correctly rounded IEEE 754 operation; other cases go to
+ * Number() on the text.
+ */
+function decimalReal(p: Uint8Array, s: number, e: number): number | null {
+  let i = s;
+  let negative = false;
+  if (p[i] === 45 || p[i] === 43) negative = p[i++] === 45;
+  const unsigned = i;
+  let mantissa = 0;
+  let digits = 0;
+  let scale = 0;
+  let d = p[i] - 48;
+  while (i < e && d >= 0 && d <= 9) {
+    mantissa = mantissa * 10 + d;
+    digits++;
+    d = p[++i] - 48;
+  }
+  if (i < e && p[i] === 46) {
+    d = p[++i] - 48;
+    while (i < e && d >= 0 && d <= 9) {
+      mantissa = mantissa * 10 + d;
+      digits++;
+      scale--;
+      d = p[++i] - 48;
+    }
+  }
+  if (digits === 0) return null;
+  if (i < e && (p[i] === 101 || p[i] === 69)) {
+    let ei = i + 1;
+    let expNegative = false;
+    if (p[ei] === 45 || p[ei] === 43) expNegative = p[ei++] === 45;
+    let exp = 0;
+    let expDigits = 0;
+    d = p[ei] - 48;
+    while (ei < e && d >= 0 && d <= 9 && expDigits < 6) {
+      exp = exp * 10 + d;
+      expDigits++;
+      d = p[++ei] - 48;
+    }
+    if (expDigits === 0 || ei !== e) return null;
+    scale += expNegative ? -exp : exp;
+    i = ei;
+  }
+  if (i !== e) return null;
+  let v: number;
+  if (digits <= 15 && scale >= -22 && scale <= 22) v = scale < 0 ? mantissa / EXACT_POWERS[-scale] : mantissa * EXACT_POWERS[scale];
+  else v = Number(String.fromCharCode(...p.subarray(unsigned, e)));
+  return negative ? -v : v;
 }
 
 function readReal(text: string): number | null {
