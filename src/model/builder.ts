@@ -417,22 +417,16 @@ export class DumpBuilder {
     const scratch16 = this.sig16.length >= longest || !this.parkedWide.includes(false) ? this.sig16 : new Uint16Array(longest);
     const scratch32 = this.sig32.length >= longest || !this.parkedWide.includes(true) ? this.sig32 : new Uint32Array(longest);
     const scratchCodes = this.codes;
-    let planeSource = -1;
+    // No closures below: variables a closure writes live on the heap, not in registers, and
+    // this loop runs once per change.
+    const planes = this.planeSlab;
+    let planeSource = 0;
     let planeUsed = 0;
     let planeAt = 0;
-    const planes = this.planeSlab;
-    const nextPlanes = (): void => {
-      planeUsed = this.parkedPlanes.takeInto(++planeSource, planes) >> 2;
-      planeAt = 0;
-    };
-    let realSource = -1;
+    const reals = this.realSlab;
+    let realSource = 0;
     let realUsed = 0;
     let realAt = 0;
-    const reals = this.realSlab;
-    const nextReals = (): void => {
-      realUsed = this.parkedReals.takeInto(++realSource, reals) >> 3;
-      realAt = 0;
-    };
     const timeCount = this.timeCount;
     const texts = this.texts;
     const hasTexts = texts.size > 0;
@@ -440,18 +434,12 @@ export class DumpBuilder {
     // Where each timestamp's changes begin, read in order from the parked step slabs.
     const parkedSteps = this.parkedSteps.count;
     const stepScratch = parkedSteps > 0 ? new Uint32Array(this.timeSlab) : EMPTY_U32;
-    let stepSlab = -1;
-    let steps: Uint32Array = EMPTY_U32;
-    const stepStartOf = (j: number): number => {
-      if (j >>> this.timeShift !== stepSlab) {
-        stepSlab = j >>> this.timeShift;
-        if (stepSlab < parkedSteps) this.parkedSteps.takeInto(stepSlab, (steps = stepScratch));
-        else steps = this.stepHot;
-      }
-      return steps[j & this.timeMask];
-    };
+    const timeMask = this.timeMask;
+    let stepSlab = 0;
+    let steps = parkedSteps > 0 ? stepScratch : this.stepHot;
+    if (parkedSteps > 0) this.parkedSteps.takeInto(0, stepScratch);
     let step = 0;
-    let nextStep = timeCount > 1 ? stepStartOf(1) : logLen;
+    let nextStep = timeCount > 1 ? steps[1] : logLen;
     for (let s = 0, pos = 0; s < slabs && pos < logLen; s++) {
       const sl = this.parkedWide[s] ? scratch32 : scratch16;
       this.parkedSigs.takeInto(s, sl);
@@ -463,7 +451,16 @@ export class DumpBuilder {
         // One time step (or the part of it in this slab) at a time.
         while (pos >= nextStep) {
           step++;
-          nextStep = step + 1 < timeCount ? stepStartOf(step + 1) : logLen;
+          const next = step + 1;
+          if (next >= timeCount) nextStep = logLen;
+          else {
+            if ((next & timeMask) === 0) {
+              stepSlab++;
+              if (stepSlab < parkedSteps) this.parkedSteps.takeInto(stepSlab, stepScratch);
+              else steps = this.stepHot;
+            }
+            nextStep = steps[next & timeMask];
+          }
         }
         const runEnd = nextStep < slabEnd ? nextStep : slabEnd;
         for (let i = pos - slabStart, end = runEnd - slabStart; i < end; i++) {
@@ -474,13 +471,19 @@ export class DumpBuilder {
           if (kind === KIND_LOGIC) allL[t + offL[k]] = cl[i];
           else if (kind === KIND_VECTOR) {
             const w = stride[k];
-            if (planeAt + w > planeUsed) nextPlanes();
+            if (planeAt + w > planeUsed) {
+              planeUsed = this.parkedPlanes.takeInto(planeSource++, planes) >> 2;
+              planeAt = 0;
+            }
             const at = curP[k];
             for (let q = 0; q < w; q++) allP[at + q] = planes[planeAt + q];
             curP[k] = at + w;
             planeAt += w;
           } else if (kind === KIND_REAL) {
-            if (realAt === realUsed) nextReals();
+            if (realAt === realUsed) {
+              realUsed = this.parkedReals.takeInto(realSource++, reals) >> 3;
+              realAt = 0;
+            }
             allR[t + offR[k]] = reals[realAt++];
           }
           if (hasTexts) {

@@ -36,6 +36,16 @@ const MAX_EXACT_TICK = 2 ** 53;
 const RUN_MARGIN = 64;
 const TEXT = new TextDecoder('utf-8');
 
+/** What the hot loop may store for a signal by itself. */
+const enum HotKind {
+  Other,
+  /** 1-bit nets and events: Logic codes. */
+  Logic,
+  /** Vectors of up to 32 bits. */
+  NarrowVector,
+  Real,
+}
+
 /** Body keywords, compared as bytes after the `$`. */
 const enum BodyBlock {
   None,
@@ -90,8 +100,9 @@ export class VcdParser {
   private pendingLine = 0;
   private pendingOffset = 0;
   private valuePlane = new Uint32Array(4);
-  /** Per signal: 1 when it stores Logic codes (1-bit nets and events), for the scalar hot path. */
-  private logicKinds = new Uint8Array(64);
+  /** Per signal, what the hot loop may store without asking the builder (see HotKind), and widths. */
+  private hotKinds = new Uint8Array(64);
+  private hotWidths = new Int32Array(64);
   private unknownPlane = new Uint32Array(4);
   /** Second result of packWord, and whether it met states beyond 0/1/x/z. */
   private packUnknown = 0;
@@ -179,7 +190,7 @@ export class VcdParser {
       const scalar = SCALAR[c0];
       if (scalar >= 0 && this.mode === Mode.Body && this.pendingKind === 0 && this.block < BodyBlock.Comment && i - start > 1) {
         const sig = this.codes.lookup(chunk, start + 1, i);
-        if (sig >= 0 && this.logicKinds[sig] === 1) {
+        if (sig >= 0 && this.hotKinds[sig] === HotKind.Logic) {
           this.b.pushLogic(sig, scalar);
           continue;
         }
@@ -215,7 +226,8 @@ export class VcdParser {
     const maxLine = this.limits.maxLineBytes;
     const one = this.codes.one;
     const two = this.codes.two;
-    const logicKinds = this.logicKinds;
+    const hotKinds = this.hotKinds;
+    const hotWidths = this.hotWidths;
     const b = this.b;
     let line = this.line;
     let lineStart = this.lineStart;
@@ -250,7 +262,7 @@ export class VcdParser {
           if (e >= n) break;
           sig = this.codes.lookup(p, i + 1, e);
         }
-        if (sig < 0 || logicKinds[sig] !== 1) break;
+        if (sig < 0 || hotKinds[sig] !== HotKind.Logic) break;
         b.pushLogic(sig, code);
         i = e;
         continue;
@@ -274,13 +286,32 @@ export class VcdParser {
         continue;
       }
       if (c === 98 || c === 66 || c === 114 || c === 82) {
-        // `b1010 <code>` or `r1.5 <code>`: value, one space, code, all inside this chunk.
+        // `b1010 <code>` or `r1.5 <code>`: value, one space, code, all inside this chunk. Binary
+        // digits are packed while they are scanned; `plain` stays true while they are all 0 or 1.
         let de = i + 1;
-        while (de < n && p[de] > 32) de++;
+        let v = 0;
+        let plain = true;
+        for (; de < n; de++) {
+          const ch = p[de];
+          if (ch === 48) v <<= 1;
+          else if (ch === 49) v = (v << 1) | 1;
+          else if (ch <= 32) break;
+          else plain = false;
+        }
         if (de + 1 >= n || p[de] !== 32 || p[de + 1] <= 32 || de === i + 1) break;
         let ce = de + 1;
         while (ce < n && p[ce] > 32) ce++;
         if (ce >= n || base + ce - lineStart > maxLine) break;
+        if (plain && (c === 98 || c === 66)) {
+          // A vector of up to 32 bits written in 0s and 1s: left-extension is with 0 (Table 18-1),
+          // so the packed digits are the value and nothing is unknown.
+          const sig = ce - de === 2 ? one[p[de + 1]] : ce - de === 3 ? two[(p[de + 1] << 8) | p[de + 2]] : this.codes.lookup(p, de + 1, ce);
+          if (sig >= 0 && hotKinds[sig] === HotKind.NarrowVector && de - i - 1 <= hotWidths[sig]) {
+            b.pushVectorWord(sig, v >>> 0, 0, null);
+            i = ce;
+            continue;
+          }
+        }
         this.pendingLine = this.tokenLine = line;
         this.pendingOffset = base + i;
         this.tokenOffset = base + de + 1;
@@ -288,9 +319,9 @@ export class VcdParser {
           this.vectorChange(p, i + 1, de, de + 1, ce);
         } else {
           const sig = this.codes.lookup(p, de + 1, ce);
-          const v = sig >= 0 && this.b.signal(sig).kind === 'real' ? decimalReal(p, i + 1, de) : null;
-          if (v === null) break;
-          b.pushReal(sig, v);
+          const real = sig >= 0 && hotKinds[sig] === HotKind.Real ? decimalReal(p, i + 1, de) : null;
+          if (real === null) break;
+          b.pushReal(sig, real);
         }
         i = ce;
         continue;
@@ -403,12 +434,17 @@ export class VcdParser {
       }
     } else {
       signal = this.b.addSignal(kind, d.width);
-      if (signal >= this.logicKinds.length) {
-        const grown = new Uint8Array(this.logicKinds.length * 2);
-        grown.set(this.logicKinds);
-        this.logicKinds = grown;
+      if (signal >= this.hotKinds.length) {
+        const kinds = new Uint8Array(this.hotKinds.length * 2);
+        kinds.set(this.hotKinds);
+        this.hotKinds = kinds;
+        const widths = new Int32Array(this.hotWidths.length * 2);
+        widths.set(this.hotWidths);
+        this.hotWidths = widths;
       }
-      this.logicKinds[signal] = kind === 'logic' || kind === 'event' ? 1 : 0;
+      this.hotKinds[signal] =
+        kind === 'logic' || kind === 'event' ? HotKind.Logic : kind === 'real' ? HotKind.Real : kind === 'vector' && d.width <= 32 ? HotKind.NarrowVector : HotKind.Other;
+      this.hotWidths[signal] = d.width;
       if (!this.codes.set(d.code, signal)) at(`identifier code '${d.code}' has characters outside printable ASCII 33..126`, 'an identifier code of printable characters (§18.2.1)');
     }
     if (d.ranged && Math.abs(d.msb - d.lsb) + 1 !== d.width && kind !== 'real') {
