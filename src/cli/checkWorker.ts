@@ -58,7 +58,8 @@ async function readHashed(file: string, options: ReadDumpOptions): Promise<{ dum
   if (!(await stat(file)).isFile() || (await isGzip(file))) {
     const hashing = sha256File(file);
     // Both reads stream the same file; the OS cache serves the second.
-    const dump = await readDumpFile(file, options);
+    // One thread per dump: check already spreads the dumps over the cores.
+    const dump = await readDumpFile(file, { ...options, threads: 1 });
     return { dump, sha256: await hashing };
   }
   const parser = new VcdParser(basename(file));

@@ -1,12 +1,15 @@
 // Reads a dump file from disk in 16 MiB pieces through the streaming parser, gunzipping
-// `.vcd.gz` (recognised by its magic bytes, whatever the name).
+// `.vcd.gz` (recognised by its magic bytes, whatever the name). A big plain file is read by
+// several threads at once (readParts.ts) where the machine has the cores.
 
 import { createReadStream } from 'node:fs';
 import { open, stat } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
 import { basename } from 'node:path';
 import { createGunzip } from 'node:zlib';
 import type { Dump } from '../model/dump';
 import { VcdParser } from '../parse/vcd';
+import { partWorkerScript, readDumpInParts } from './readParts';
 import { UsageError } from './run';
 
 export interface ReadDumpOptions {
@@ -14,7 +17,23 @@ export interface ReadDumpOptions {
   allowTruncated?: boolean;
   /** Where warnings go; stderr by default. */
   warn?: (message: string) => void;
+  /** Threads that may read one file (default: the cores, at most 4); 1 reads it in one piece. */
+  threads?: number;
+  /** The built part worker (default: parsePart.js beside this module). */
+  partWorker?: string;
+  /** Told why a file big enough to read in parts was read in one piece. */
+  onOnePiece?: (why: string) => void;
 }
+
+/** MIDRAIL_READ_THREADS=1 reads every dump in one piece (to compare, or on a shared machine). */
+function threadsFromEnvironment(): number | null {
+  const n = Number(process.env.MIDRAIL_READ_THREADS);
+  return Number.isInteger(n) && n >= 1 ? n : null;
+}
+
+/** Files smaller than this are read in one piece: starting threads would cost more than it saves. */
+export const PARTS_FROM_BYTES = 32 * 1024 * 1024;
+const MAX_THREADS = 4;
 
 const PIECE = 16 * 1024 * 1024;
 
@@ -37,8 +56,23 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
     if (err instanceof UsageError) throw err;
     throw new UsageError(`cannot read dump '${path}': ${(err as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (err as Error).message}`);
   }
-  const parser = new VcdParser(basename(path));
   const gz = await isGzip(path);
+  const size = (await stat(path)).size;
+  const threads = Math.min(options.threads ?? threadsFromEnvironment() ?? availableParallelism(), MAX_THREADS);
+  const script = options.partWorker ?? partWorkerScript();
+  const debug = process.env.MIDRAIL_DEBUG_READ ? (m: string) => process.stderr.write(`midrail: ${path}: ${m}\n`) : null;
+  if (!gz && size >= PARTS_FROM_BYTES && threads > 1 && script) {
+    const onOnePiece = (why: string) => {
+      options.onOnePiece?.(why);
+      debug?.(`read in one piece: ${why}`);
+    };
+    const dump = await readDumpInParts(path, size, threads, script, onOnePiece);
+    if (dump) {
+      debug?.(`read in parts by ${threads} threads`);
+      return acceptDump(dump, options);
+    }
+  }
+  const parser = new VcdParser(basename(path));
   const raw = createReadStream(path, { highWaterMark: PIECE });
   const stream = gz ? raw.pipe(createGunzip({ chunkSize: 1024 * 1024 })) : raw;
   try {
@@ -56,8 +90,11 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
 
 /** Ends a parse fed by any reader: refuses a cut-off dump unless allowed, and passes the warnings on. */
 export function finishDump(parser: VcdParser, options: ReadDumpOptions = {}): Dump {
+  return acceptDump(parser.finish(), options);
+}
+
+function acceptDump(dump: Dump, options: ReadDumpOptions): Dump {
   const warn = options.warn ?? ((m: string) => process.stderr.write(`midrail: warning: ${m}\n`));
-  const dump = parser.finish();
   if (dump.truncated) {
     const cut = dump.warnings[dump.warnings.length - 1]?.message ?? 'the dump is cut off';
     if (!options.allowTruncated) {

@@ -11,6 +11,19 @@
 
 import type { Dump, DumpWarning, Net, Scope, Signal, SignalKind, Timescale } from './dump';
 import { wordsFor } from './dump';
+import {
+  type DumpArrays,
+  type DumpLayout,
+  KIND_LOGIC,
+  KIND_REAL,
+  KIND_TEXT,
+  KIND_VECTOR,
+  type PartPlacement,
+  type PartTotals,
+  allocateArrays,
+  allocateBuffer,
+  planLayout,
+} from './layout';
 import { ParkedSlabs } from './parkedSlabs';
 
 /** Log slabs hold 2^20 changes; tests pick tiny slabs so that every slab boundary is reached. */
@@ -20,10 +33,22 @@ const EMPTY_U16 = new Uint16Array(0);
 const EMPTY_U32 = new Uint32Array(0);
 const EMPTY_F64 = new Float64Array(0);
 
-const KIND_LOGIC = 0;
-const KIND_VECTOR = 1;
-const KIND_REAL = 2;
-const KIND_TEXT = 3;
+/** A text value (string, or vector with states beyond 0/1/x/z) and its place in the time index. */
+export interface PlacedText {
+  signal: number;
+  at: number;
+  text: string;
+}
+
+/** What a Dump takes from the whole read rather than from one part. */
+export interface AssembledRest {
+  changes: number;
+  bytes: number;
+  truncated: boolean;
+  endTick: number;
+  warnings: DumpWarning[];
+  dumpOff: Array<[number, number]>;
+}
 
 function kindCode(kind: SignalKind): number {
   if (kind === 'vector') return KIND_VECTOR;
@@ -79,6 +104,7 @@ export class DumpBuilder {
   private parkedTimes = new ParkedSlabs();
   private parkedSteps = new ParkedSlabs();
   private lastTick = 0;
+  private firstTick = 0;
   private timeCount = 0;
   /** Index of the current timestamp in `times`, -1 before the first `#`. */
   private current = -1;
@@ -114,6 +140,16 @@ export class DumpBuilder {
 
   get signalCount(): number {
     return this.sigs.length;
+  }
+
+  /** Per signal, its kind as the change log stores it (layout.ts KIND_*). */
+  get kindCodes(): Uint8Array {
+    return this.kinds;
+  }
+
+  /** Per signal, 32-bit words per plane of a vector (0 for other kinds). */
+  get planeWords(): Int32Array {
+    return this.words;
   }
 
   get currentTick(): number {
@@ -186,6 +222,7 @@ export class DumpBuilder {
     if (this.logLen > 0xffffffff) throw new RangeError('more than 4,294,967,295 changes in one dump');
     this.timeHot[slot] = tick;
     this.stepHot[slot] = this.logLen;
+    if (this.timeCount === 0) this.firstTick = tick;
     this.lastTick = tick;
     this.current = this.timeCount++;
     this.endTick = tick;
@@ -358,50 +395,59 @@ export class DumpBuilder {
     if (this.warnings.length < 1000) this.warnings.push({ line, offset, message });
   }
 
-  /** Scatters the change log into exact-size per-signal arrays. */
+  /** Totals of everything pushed so far (see layout.ts). */
+  partTotals(): PartTotals {
+    const n = this.sigs.length;
+    return {
+      counts: this.counts.slice(0, n),
+      uncounted: this.uncounted.slice(0, n),
+      timeCount: this.timeCount,
+      firstTick: this.firstTick,
+      lastTick: this.timeCount > 0 ? this.lastTick : 0,
+    };
+  }
+
+  /** Scatters the change log into exact-size per-signal arrays: the dump read in one piece. */
   finish(bytes: number, truncated: boolean): Dump {
     const n = this.sigs.length;
+    const layout = planLayout(this.kinds, this.words, n, [this.partTotals()]);
+    const arrays = allocateArrays(layout, this.options.shared === true);
+    const texts = this.scatterInto(arrays, layout.parts[0]);
+    const times = new Float64Array(allocateBuffer(layout.timeCount * 8, this.options.shared === true));
+    this.timesInto(times, 0, 0);
+    return this.assemble(layout, arrays, texts, times, {
+      changes: layout.regions.written.reduce((a, b) => a + b, 0),
+      bytes,
+      truncated,
+      endTick: this.endTick,
+      warnings: this.warnings,
+      dumpOff: this.dumpOff,
+    });
+  }
+
+  /**
+   * Places this part's changes (see layout.ts) and lets the change log go, slab by slab as it is
+   * read. Returns the text values with their places in `arrays.timeIndex`.
+   */
+  scatterInto(arrays: DumpArrays, place: PartPlacement): PlacedText[] {
+    const n = this.sigs.length;
     const kinds = this.kinds;
-    const words = this.words;
-    // Each kind of array is carved from one buffer, so a finished dump owns four buffers in all
-    // (cheap to allocate and to transfer) and each signal's array is an exact-size view.
-    let nT = 0;
-    let nL = 0;
-    let nP = 0;
-    let nR = 0;
-    for (let k = 0; k < n; k++) {
-      const c = this.counts[k];
-      nT += c;
-      if (kinds[k] === KIND_LOGIC) nL += c;
-      else if (kinds[k] === KIND_VECTOR) nP += c * 2 * words[k];
-      else if (kinds[k] === KIND_REAL) nR += c;
-    }
-    const alloc = (bytes: number): ArrayBuffer =>
-      this.options.shared && typeof SharedArrayBuffer === 'function' ? (new SharedArrayBuffer(bytes) as unknown as ArrayBuffer) : new ArrayBuffer(bytes);
-    const allT = new Uint32Array(alloc(nT * 4));
-    const allL = new Uint8Array(alloc(nL));
-    const allP = new Uint32Array(alloc(nP * 4));
-    const allR = new Float64Array(alloc(nR * 8));
-    // Per signal, where its part of each buffer starts. A change's place in the logic and real
-    // arrays follows from its place in the time index (offL, offR), so the scatter keeps one
-    // cursor per signal, plus one for vector planes, and touches no per-signal object.
-    const startT = new Int32Array(n);
-    const curT = new Int32Array(n);
+    const allT = arrays.timeIndex;
+    const allL = arrays.logic;
+    const allP = arrays.planes;
+    const allR = arrays.reals;
+    // A change's place in the logic and real arrays follows from its place in the time index
+    // (offL, offR), so the scatter keeps one cursor per signal, plus one for vector planes, and
+    // touches no per-signal object.
+    const curT = place.startT.slice();
     const offL = new Int32Array(n);
     const offR = new Int32Array(n);
-    const curP = new Int32Array(n);
+    const curP = place.startP.slice();
     const stride = new Int32Array(n);
-    for (let k = 0, aT = 0, aL = 0, aP = 0, aR = 0; k < n; k++) {
-      const c = this.counts[k];
-      startT[k] = curT[k] = aT;
-      offL[k] = aL - aT;
-      offR[k] = aR - aT;
-      curP[k] = aP;
-      stride[k] = 2 * words[k];
-      aT += c;
-      if (kinds[k] === KIND_LOGIC) aL += c;
-      else if (kinds[k] === KIND_VECTOR) aP += c * 2 * words[k];
-      else if (kinds[k] === KIND_REAL) aR += c;
+    for (let k = 0; k < n; k++) {
+      offL[k] = place.startL[k] - place.startT[k];
+      offR[k] = place.startR[k] - place.startT[k];
+      stride[k] = 2 * this.words[k];
     }
     // The hot slabs are parked too, so that every slab is read the same way: copied back into
     // the hot arrays (already resident, and as long as any parked slab) and released at once.
@@ -430,6 +476,7 @@ export class DumpBuilder {
     const timeCount = this.timeCount;
     const texts = this.texts;
     const hasTexts = texts.size > 0;
+    const placed: PlacedText[] = [];
     const logLen = this.logLen;
     // Where each timestamp's changes begin, read in order from the parked step slabs.
     const parkedSteps = this.parkedSteps.count;
@@ -438,7 +485,7 @@ export class DumpBuilder {
     let stepSlab = 0;
     let steps = parkedSteps > 0 ? stepScratch : this.stepHot;
     if (parkedSteps > 0) this.parkedSteps.takeInto(0, stepScratch);
-    let step = 0;
+    let local = 0;
     let nextStep = timeCount > 1 ? steps[1] : logLen;
     for (let s = 0, pos = 0; s < slabs && pos < logLen; s++) {
       const sl = this.parkedWide[s] ? scratch32 : scratch16;
@@ -450,8 +497,8 @@ export class DumpBuilder {
       while (pos < slabEnd) {
         // One time step (or the part of it in this slab) at a time.
         while (pos >= nextStep) {
-          step++;
-          const next = step + 1;
+          local++;
+          const next = local + 1;
           if (next >= timeCount) nextStep = logLen;
           else {
             if ((next & timeMask) === 0) {
@@ -462,6 +509,7 @@ export class DumpBuilder {
             nextStep = steps[next & timeMask];
           }
         }
+        const step = place.stepBase + local;
         const runEnd = nextStep < slabEnd ? nextStep : slabEnd;
         for (let i = pos - slabStart, end = runEnd - slabStart; i < end; i++) {
           const k = sl[i];
@@ -488,7 +536,7 @@ export class DumpBuilder {
           }
           if (hasTexts) {
             const text = texts.get(slabStart + i);
-            if (text !== undefined) this.sigs[k].texts.set(t - startT[k], text);
+            if (text !== undefined) placed.push({ signal: k, at: t, text });
           }
         }
         pos = runEnd;
@@ -499,25 +547,7 @@ export class DumpBuilder {
     this.parkedPlanes.clear();
     this.parkedReals.clear();
     this.parkedWide = [];
-    for (let k = 0, aT = 0, aL = 0, aP = 0, aR = 0; k < n; k++) {
-      const sig = this.sigs[k];
-      const c = this.counts[k];
-      const kind = kinds[k];
-      sig.count = c;
-      sig.written = c - this.uncounted[k];
-      sig.timeIndex = allT.subarray(aT, (aT += c));
-      sig.logic = kind === KIND_LOGIC ? allL.subarray(aL, (aL += c)) : EMPTY_U8;
-      sig.planes = kind === KIND_VECTOR ? allP.subarray(aP, (aP += c * stride[k])) : EMPTY_U32;
-      sig.reals = kind === KIND_REAL ? allR.subarray(aR, (aR += c)) : EMPTY_F64;
-    }
-    const changes = this.changes;
-    const times = new Float64Array(alloc(this.timeCount * 8));
-    const parkedTimes = this.parkedTimes.count;
-    for (let j = 0; j < parkedTimes; j++) this.parkedTimes.takeInto(j, times.subarray(j * this.timeSlab));
-    times.set(this.timeHot.subarray(0, this.timeCount - parkedTimes * this.timeSlab), parkedTimes * this.timeSlab);
-    this.parkedTimes.clear();
     this.parkedSteps.clear();
-    this.timeHot = EMPTY_F64;
     this.stepHot = EMPTY_U32;
     this.sig16 = EMPTY_U16;
     this.sig32 = EMPTY_U32;
@@ -525,21 +555,60 @@ export class DumpBuilder {
     this.planeSlab = EMPTY_U32;
     this.realSlab = EMPTY_F64;
     this.texts = new Map();
+    return placed;
+  }
+
+  /** Copies this part's timestamps from its `from`-th on into `times` at `at`, and lets them go. */
+  timesInto(times: Float64Array, at: number, from: number): void {
+    const size = this.timeSlab;
+    const parked = this.parkedTimes.count;
+    const scratch = parked > 0 ? new Float64Array(size) : EMPTY_F64;
+    for (let j = 0; j <= parked; j++) {
+      const first = j * size;
+      const len = Math.min(size, this.timeCount - first);
+      if (len <= 0) break;
+      let slab: Float64Array;
+      if (j < parked) {
+        this.parkedTimes.takeInto(j, scratch);
+        slab = scratch;
+      } else slab = this.timeHot;
+      const skip = Math.max(0, from - first);
+      if (skip < len) times.set(slab.subarray(skip, len), at + first + skip - from);
+    }
+    this.parkedTimes.clear();
+    this.timeHot = EMPTY_F64;
+  }
+
+  /** The Dump: this builder's scopes, nets and signals over the placed arrays. */
+  assemble(layout: DumpLayout, arrays: DumpArrays, texts: PlacedText[], times: Float64Array, rest: AssembledRest): Dump {
+    const { startT, startL, startP, startR, counts, written } = layout.regions;
+    for (let k = 0; k < this.sigs.length; k++) {
+      const sig = this.sigs[k];
+      const c = counts[k];
+      const kind = this.kinds[k];
+      sig.count = c;
+      sig.written = written[k];
+      sig.timeIndex = arrays.timeIndex.subarray(startT[k], startT[k] + c);
+      sig.logic = kind === KIND_LOGIC ? arrays.logic.subarray(startL[k], startL[k] + c) : EMPTY_U8;
+      sig.planes = kind === KIND_VECTOR ? arrays.planes.subarray(startP[k], startP[k] + c * 2 * this.words[k]) : EMPTY_U32;
+      sig.reals = kind === KIND_REAL ? arrays.reals.subarray(startR[k], startR[k] + c) : EMPTY_F64;
+    }
+    for (const { signal, at, text } of texts) this.sigs[signal].texts.set(at - startT[signal], text);
     return {
       source: this.source,
       date: this.date,
       version: this.version,
       timescale: this.timescale,
       times,
-      endTick: this.endTick,
+      endTick: rest.endTick,
       scopes: this.scopes,
       nets: this.nets,
       signals: this.sigs,
-      dumpOff: this.dumpOff,
-      changes,
-      bytes,
-      truncated,
-      warnings: this.warnings,
+      dumpOff: rest.dumpOff,
+      changes: rest.changes,
+      bytes: rest.bytes,
+      truncated: rest.truncated,
+      warnings: rest.warnings,
     };
   }
 }

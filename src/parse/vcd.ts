@@ -126,6 +126,22 @@ export class VcdParser {
     return this.base;
   }
 
+  /** Byte offset just past `$enddefinitions $end`, once the header is read (else -1). */
+  bodyStart = -1;
+  private headerWarnings = 0;
+  /** Whether $dumpoff or $dumpon appeared (a dump read in parts must not carry that state across). */
+  sawDumpSwitch = false;
+
+  /** Line the next byte is on. */
+  get lineNumber(): number {
+    return this.line;
+  }
+
+  /** The builder holding what has been read (for a dump read in parts; see parts.ts). */
+  get builder(): DumpBuilder {
+    return this.b;
+  }
+
   private fail(problem: string, expected: string, line = this.tokenLine, offset = this.tokenOffset): never {
     throw new VcdError(this.source, line, offset, problem, expected);
   }
@@ -410,6 +426,8 @@ export class VcdParser {
         break;
       case '$enddefinitions':
         this.mode = Mode.Body;
+        this.bodyStart = this.tokenOffset + 4;
+        this.headerWarnings = b.warnings.length;
         if (!this.sawTimescale) b.warn(this.commandLine, this.commandOffset, 'no $timescale in the header; 1 s per tick assumed');
         if (this.scopeStack.length > 0) b.warn(this.commandLine, this.commandOffset, `${this.scopeStack.length} $scope(s) not closed by $upscope`);
         break;
@@ -533,12 +551,14 @@ export class VcdParser {
       case '$dumpall':
         return this.open(BodyBlock.DumpAll);
       case '$dumpon':
+        this.sawDumpSwitch = true;
         if (this.dumpOffStart >= 0) {
           this.b.dumpOff.push([this.dumpOffStart, this.b.currentTick]);
           this.dumpOffStart = -1;
         }
         return this.open(BodyBlock.DumpOn);
       case '$dumpoff':
+        this.sawDumpSwitch = true;
         this.open(BodyBlock.DumpOff);
         if (this.dumpOffStart < 0) this.dumpOffStart = this.b.currentTick;
         this.dumpOffMarks = new Uint32Array(this.b.signalCount);
@@ -774,23 +794,36 @@ export class VcdParser {
     return this.b.nets.find((n) => n.signal === sig)?.path ?? `#${sig}`;
   }
 
+  /** Why the input read so far does not end cleanly between two time steps ('' when it does). */
+  endState(): string {
+    if (this.mode !== Mode.Body) return 'it ends before $enddefinitions';
+    if (this.carryLen > 0) return 'the file ends in the middle of a line';
+    if (this.pendingKind !== 0) return 'the file ends between a value and its identifier code';
+    if (this.block !== BodyBlock.None && this.block !== BodyBlock.DumpOff) return `the file ends inside the ${this.blockName()} section opened at line ${this.blockLine}`;
+    return '';
+  }
+
   /**
    * Ends the input. A file that stops mid-line or inside a section is taken as cut off (a
    * simulation still running or killed): the last time step may be incomplete, so it is dropped
-   * and a warning names the line. A file that ends before $enddefinitions is an error.
+   * and a warning names the line. A file that ends before $enddefinitions is an error. Returns
+   * whether the dump was cut off. For a part of a dump read in parts, `lineDelta` and `byteDelta`
+   * turn its own line numbers and offsets into the file's, for the warnings of its body.
    */
-  finish(): Dump {
+  closeInput(lineDelta = 0, byteDelta = 0): boolean {
     const b = this.b;
-    const endLine = this.line;
-    const endOffset = this.base;
+    const endLine = this.line + lineDelta;
+    const endOffset = this.base + byteDelta;
     if (this.mode !== Mode.Body) {
       const open = this.mode === Mode.Command ? ` (inside ${this.command} opened at line ${this.commandLine})` : '';
       this.fail(`file ends before $enddefinitions${open}`, 'the header to finish with $enddefinitions $end', endLine, endOffset);
     }
-    let cut = '';
-    if (this.carryLen > 0) cut = 'the file ends in the middle of a line';
-    else if (this.pendingKind !== 0) cut = 'the file ends between a value and its identifier code';
-    else if (this.block !== BodyBlock.None && this.block !== BodyBlock.DumpOff) cut = `the file ends inside the ${this.blockName()} section opened at line ${this.blockLine}`;
+    for (let w = this.headerWarnings; w < b.warnings.length; w++) {
+      const warning = b.warnings[w];
+      b.warnings[w] = { ...warning, line: warning.line + lineDelta, offset: warning.offset + byteDelta };
+    }
+    this.blockLine += lineDelta;
+    const cut = this.endState();
     if (this.block === BodyBlock.DumpOff) this.closeDumpOff();
     if (this.dumpOffStart >= 0) b.dumpOff.push([this.dumpOffStart, b.endTick]);
     const truncated = cut !== '';
@@ -798,10 +831,20 @@ export class VcdParser {
       // A cut inside a new `#` line means the step before it was complete.
       const cutInTimestamp = this.carryLen > 0 && this.carry[0] === 35;
       if (!cutInTimestamp) b.dropCurrentStep();
-      const last = !this.sawTime ? '' : cutInTimestamp ? `; loaded up to #${b.currentTick}` : `; loaded up to #${b.currentTick} (line ${this.lastTimeLine}), whose changes were dropped as possibly incomplete`;
+      const last = !this.sawTime
+        ? ''
+        : cutInTimestamp
+          ? `; loaded up to #${b.currentTick}`
+          : `; loaded up to #${b.currentTick} (line ${this.lastTimeLine + lineDelta}), whose changes were dropped as possibly incomplete`;
       b.warn(endLine, endOffset, `dump is cut off at line ${endLine}: ${cut}${last}`);
     }
-    return b.finish(this.base, truncated);
+    return truncated;
+  }
+
+  /** Ends the input (see closeInput) and builds the dump. */
+  finish(): Dump {
+    const truncated = this.closeInput();
+    return this.b.finish(this.base, truncated);
   }
 }
 

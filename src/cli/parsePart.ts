@@ -1,0 +1,77 @@
+// One range of a dump read in parts (src/parse/parts.ts), in a worker thread: reads the header
+// bytes and its range straight from the file, then answers the reading thread's requests to close
+// its input and to place its changes in the shared arrays. Built as its own entry
+// (dist/cli/parsePart.js) and started by readParts.ts.
+
+import { closeSync, openSync, readSync } from 'node:fs';
+import { isMainThread, parentPort, workerData } from 'node:worker_threads';
+import type { DumpArrays, PartPlacement } from '../model/layout';
+import { PartReader } from '../parse/parts';
+
+/** Marks the worker's workerData so a stray import never starts serving. */
+export const PART_ROLE = 'midrail-parse-part';
+
+export interface PartJob {
+  role: typeof PART_ROLE;
+  path: string;
+  source: string;
+  /** Bytes of the header: the file up to just past `$enddefinitions $end`. */
+  headerEnd: number;
+  /** The range [start, end) this part reads; start is the `#` of a timestamp line. */
+  start: number;
+  end: number;
+}
+
+export type PartRequest = { kind: 'close'; lineAtStart: number } | { kind: 'place'; arrays: DumpArrays; placement: PartPlacement };
+
+const PIECE = 16 * 1024 * 1024;
+
+/** Reads buf.length bytes at `position` (fewer only at the end of the file); returns how many. */
+export function readAt(fd: number, buf: Uint8Array, position: number): number {
+  let n = 0;
+  while (n < buf.length) {
+    const got = readSync(fd, buf, n, buf.length - n, position + n);
+    if (got === 0) break;
+    n += got;
+  }
+  return n;
+}
+
+function serve(job: PartJob): void {
+  const port = parentPort!;
+  let reader: PartReader;
+  try {
+    const fd = openSync(job.path, 'r');
+    try {
+      const header = new Uint8Array(job.headerEnd);
+      readAt(fd, header, 0);
+      reader = new PartReader(job.source, header, job.start);
+      const piece = new Uint8Array(Math.min(PIECE, job.end - job.start));
+      for (let at = job.start; at < job.end; ) {
+        const n = readAt(fd, piece.subarray(0, Math.min(piece.length, job.end - at)), at);
+        if (n === 0) break;
+        reader.push(piece.subarray(0, n));
+        at += n;
+      }
+    } finally {
+      closeSync(fd);
+    }
+    port.postMessage({ kind: 'read', read: reader.read() });
+  } catch (err) {
+    port.postMessage({ kind: 'error', message: (err as Error).message });
+    return;
+  }
+  port.on('message', (req: PartRequest) => {
+    try {
+      if (req.kind === 'close') port.postMessage({ kind: 'closed', closed: reader.close(req.lineAtStart) });
+      else {
+        const placed = reader.place(req.arrays, req.placement);
+        port.postMessage({ kind: 'placed', placed }, [placed.times.buffer as ArrayBuffer]);
+      }
+    } catch (err) {
+      port.postMessage({ kind: 'error', message: (err as Error).message });
+    }
+  });
+}
+
+if (!isMainThread && (workerData as PartJob | null)?.role === PART_ROLE) serve(workerData as PartJob);
