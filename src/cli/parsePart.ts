@@ -24,7 +24,8 @@ export interface PartJob {
 
 export type PartRequest = { kind: 'close'; lineAtStart: number } | { kind: 'place'; arrays: DumpArrays; placement: PartPlacement };
 
-const PIECE = 16 * 1024 * 1024;
+/** Bytes read per piece from a plain file into one reused buffer. */
+export const READ_PIECE = 4 * 1024 * 1024;
 
 /** Reads buf.length bytes at `position` (fewer only at the end of the file); returns how many. */
 export function readAt(fd: number, buf: Uint8Array, position: number): number {
@@ -46,7 +47,7 @@ function serve(job: PartJob): void {
       const header = new Uint8Array(job.headerEnd);
       readAt(fd, header, 0);
       reader = new PartReader(job.source, header, job.start);
-      const piece = new Uint8Array(Math.min(PIECE, job.end - job.start));
+      const piece = new Uint8Array(Math.min(READ_PIECE, job.end - job.start));
       for (let at = job.start; at < job.end; ) {
         const n = readAt(fd, piece.subarray(0, Math.min(piece.length, job.end - at)), at);
         if (n === 0) break;

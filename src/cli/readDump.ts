@@ -2,13 +2,14 @@
 // `.vcd.gz` (recognised by its magic bytes, whatever the name). A big plain file is read by
 // several threads at once (readParts.ts) where the machine has the cores.
 
-import { createReadStream } from 'node:fs';
+import { closeSync, createReadStream, openSync } from 'node:fs';
 import { open, stat } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
 import { basename } from 'node:path';
 import { createGunzip } from 'node:zlib';
 import type { Dump } from '../model/dump';
 import { VcdParser } from '../parse/vcd';
+import { READ_PIECE, readAt } from './parsePart';
 import { partWorkerScript, readDumpInParts } from './readParts';
 import { UsageError } from './run';
 
@@ -17,7 +18,7 @@ export interface ReadDumpOptions {
   allowTruncated?: boolean;
   /** Where warnings go; stderr by default. */
   warn?: (message: string) => void;
-  /** Threads that may read one file (default: the cores, at most 4); 1 reads it in one piece. */
+  /** Threads that may read one file (default: half the cores, at most 4); 1 reads it in one piece. */
   threads?: number;
   /** The built part worker (default: parsePart.js beside this module). */
   partWorker?: string;
@@ -25,7 +26,16 @@ export interface ReadDumpOptions {
   onOnePiece?: (why: string) => void;
 }
 
-/** MIDRAIL_READ_THREADS=1 reads every dump in one piece (to compare, or on a shared machine). */
+/**
+ * One reading thread per two cores, so the engine's own compiler and collector threads keep a
+ * core: on a 2-core machine two reading threads starve them and measured no faster than one
+ * (npm run bench, section parse). So 2 and 3 cores read in one piece.
+ */
+function defaultThreads(): number {
+  return Math.max(1, Math.floor(availableParallelism() / 2));
+}
+
+/** MIDRAIL_READ_THREADS=N sets the reading threads (1: one piece, to compare or on a shared machine). */
 function threadsFromEnvironment(): number | null {
   const n = Number(process.env.MIDRAIL_READ_THREADS);
   return Number.isInteger(n) && n >= 1 ? n : null;
@@ -36,6 +46,7 @@ export const PARTS_FROM_BYTES = 32 * 1024 * 1024;
 const MAX_THREADS = 4;
 
 const PIECE = 16 * 1024 * 1024;
+let readPiece: Uint8Array | null = null;
 
 export async function isGzip(path: string): Promise<boolean> {
   const fh = await open(path, 'r');
@@ -58,7 +69,7 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
   }
   const gz = await isGzip(path);
   const size = (await stat(path)).size;
-  const threads = Math.min(options.threads ?? threadsFromEnvironment() ?? availableParallelism(), MAX_THREADS);
+  const threads = Math.min(options.threads ?? threadsFromEnvironment() ?? defaultThreads(), MAX_THREADS);
   const script = options.partWorker ?? partWorkerScript();
   const debug = process.env.MIDRAIL_DEBUG_READ ? (m: string) => process.stderr.write(`midrail: ${path}: ${m}\n`) : null;
   if (!gz && size >= PARTS_FROM_BYTES && threads > 1 && script) {
@@ -73,8 +84,20 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
     }
   }
   const parser = new VcdParser(basename(path));
+  if (!gz) {
+    // One buffer, reused for every piece: the parser keeps no view of a piece (it copies a token
+    // cut by a piece's end), and fresh memory costs more to touch than the bytes cost to read.
+    const piece = (readPiece ??= new Uint8Array(READ_PIECE));
+    const fd = openSync(path, 'r');
+    try {
+      for (let at = 0, n = readAt(fd, piece, 0); n > 0; at += n, n = readAt(fd, piece, at)) parser.push(piece.subarray(0, n));
+    } finally {
+      closeSync(fd);
+    }
+    return finishDump(parser, options);
+  }
   const raw = createReadStream(path, { highWaterMark: PIECE });
-  const stream = gz ? raw.pipe(createGunzip({ chunkSize: 1024 * 1024 })) : raw;
+  const stream = raw.pipe(createGunzip({ chunkSize: 1024 * 1024 }));
   try {
     for await (const piece of stream as AsyncIterable<Buffer>) {
       parser.push(new Uint8Array(piece.buffer, piece.byteOffset, piece.byteLength));
@@ -82,7 +105,7 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
   } catch (err) {
     raw.destroy();
     const e = err as NodeJS.ErrnoException;
-    if (gz && e.code?.startsWith('Z_')) throw new UsageError(`${path}: the gzip data is damaged after ${parser.bytesRead} bytes of VCD (${e.message})`);
+    if (e.code?.startsWith('Z_')) throw new UsageError(`${path}: the gzip data is damaged after ${parser.bytesRead} bytes of VCD (${e.message})`);
     throw err;
   }
   return finishDump(parser, options);

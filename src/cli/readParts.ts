@@ -11,9 +11,8 @@ import type { Dump } from '../model/dump';
 import type { DumpArrays, PartPlacement } from '../model/layout';
 import { type PartClosed, type PartHandle, type PartPlaced, type PartRead, cutTargets, firstTimestampLine, joinParts } from '../parse/parts';
 import { VcdParser } from '../parse/vcd';
-import { PART_ROLE, type PartJob, type PartRequest, readAt } from './parsePart';
+import { PART_ROLE, type PartJob, type PartRequest, READ_PIECE, readAt } from './parsePart';
 
-const PIECE = 16 * 1024 * 1024;
 /** Bytes searched for a timestamp line after each cut's target. */
 const CUT_WINDOW = 1024 * 1024;
 
@@ -86,7 +85,7 @@ export async function readDumpInParts(path: string, size: number, parts: number,
   const handles: PartHandle[] = [];
   const fd = openSync(path, 'r');
   try {
-    const piece = new Uint8Array(PIECE);
+    const piece = new Uint8Array(READ_PIECE);
     let at = 0;
     while (first.bodyStart < 0 && at < size) {
       const n = readAt(fd, piece, at);
@@ -116,7 +115,7 @@ export async function readDumpInParts(path: string, size: number, parts: number,
     }
     // The first range, read here while the workers read theirs.
     while (at < cuts[0]) {
-      const n = readAt(fd, piece.subarray(0, Math.min(PIECE, cuts[0] - at)), at);
+      const n = readAt(fd, piece.subarray(0, Math.min(READ_PIECE, cuts[0] - at)), at);
       if (n === 0) break;
       first.push(piece.subarray(0, n));
       at += n;

@@ -5,6 +5,7 @@ import { runBaseline } from './baselineTask';
 import { runFloor } from './floorTask';
 import { runDelay, runGlitches } from './measureTask';
 import { runParse } from './parseTask';
+import { runThreads } from './threadsTask';
 import { runTouch } from './touchTask';
 
 export const RESULT_MARK = '@@RESULT ';
@@ -15,6 +16,7 @@ const TASKS: Record<string, Task> = {
   floor: (a) => runFloor(String(a.path)),
   parse: (a) => runParse(String(a.path)),
   touch: (a) => runTouch(Number(a.bytes)),
+  threads: (a) => runThreads(String(a.path), Number(a.threads)),
   baseline: (a) => runBaseline(String(a.path), Number(a.capMs)),
   delay: (a) => runDelay(Number(a.pairs), Number(a.runs)),
   glitches: (a) => runGlitches(String(a.path), Number(a.maxWidthS), Number(a.runs)),

@@ -4,6 +4,7 @@
 import type { BaselineResult } from '../child/baselineTask';
 import type { FloorResult } from '../child/floorTask';
 import type { ParseResult } from '../child/parseTask';
+import type { ThreadsResult } from '../child/threadsTask';
 import type { TouchResult } from '../child/touchTask';
 import { runChild } from '../child/spawnTask';
 import { loadParser } from '../engines';
@@ -94,6 +95,43 @@ function printHeld(m: Measured): void {
       `timestamp table ${per(h.times, m.parse.changes)} ` +
       `(changes: ${h.changesByKind.logic} 1-bit, ${h.changesByKind.vector} vector, ${h.changesByKind.real} real)`,
   );
+}
+
+/**
+ * The optional two-thread read (src/parse/parts.ts through the CLI's reader), against the same
+ * reader with one thread, both in fresh processes, on the same files.
+ */
+async function threadsFigures(dumps: Measured[], reps: number): Promise<void> {
+  if (dumps.length === 0) {
+    info('two-thread read: not measured (no dump of 50 MB or more in this run)');
+    return;
+  }
+  const rows: string[][] = [];
+  for (const m of dumps) {
+    let one: ThreadsResult | null = null;
+    let two: ThreadsResult | null = null;
+    let peak = 0;
+    for (let r = 0; r < reps; r++) {
+      one = best(one, await runChild<ThreadsResult>('threads', { path: m.dump.path, threads: 1 }));
+      const t = await runChild<ThreadsResult>('threads', { path: m.dump.path, threads: 2 });
+      peak = Math.max(peak, t.peakRssDelta);
+      two = best(two, t);
+    }
+    if (!one || !two) continue;
+    if (two.changes !== m.dump.meta.changes) info(`CHECK FAILED ${m.label}: two threads gave ${two.changes} changes (generator wrote ${m.dump.meta.changes})`);
+    if (two.onePiece) info(`${m.label}: the two-thread reader fell back to one piece: ${two.onePiece}`);
+    const floor = mbps(m.floor.bytes, m.floor.ms);
+    rows.push([
+      m.label,
+      fixed(mbps(one.bytes, one.ms)),
+      fixed(mbps(two.bytes, two.ms)),
+      fixed(one.ms / two.ms),
+      fixed(mbps(two.bytes, two.ms) / floor),
+      fixed(peak / two.changes),
+    ]);
+  }
+  info('two-thread read (the CLI reader: this thread reads the header and the first half, a worker the rest):');
+  table(['dump', '1 thread MB/s', '2 threads MB/s', 'speed-up', 'ratio to floor', 'peak B/chg'], rows);
 }
 
 async function baselineSlice(source: SynthDump, opts: BenchOptions, parserReady: boolean): Promise<void> {
@@ -196,7 +234,7 @@ export async function parseSection(opts: BenchOptions): Promise<void> {
       ? `worst: ${heaviest.m.label}; judged on dumps ≥ ${judgedFrom} MB${judgedFrom < MEMORY_JUDGED_FROM_MB ? ' (quick run: small dumps overstate it)' : ''}`
       : 'parser not available',
   });
-  info('optional two-worker parse: not measured (no two-worker entry point in src/parse yet)');
+  await threadsFigures(measured.filter((m) => m.parse && m.mb >= 50), opts.reps);
 
   const smallest = measured.filter((m) => m.dump.meta.nets === Math.min(...opts.nets)).sort((a, b) => a.mb - b.mb)[0];
   if (smallest) await baselineSlice(smallest.dump, opts, parserReady);
