@@ -43,32 +43,38 @@ export class CodeTable {
 
   /** Index for a code string (from a $var line), or -1. */
   get(code: string): number {
-    const bytes = asciiBytes(code);
-    return bytes ? this.lookup(bytes, 0, bytes.length) : -1;
+    const n = code.length;
+    if (!printable(code)) return -1;
+    if (n === 1) return this.one[code.charCodeAt(0)];
+    if (n === 2) return this.two[(code.charCodeAt(0) << 8) | code.charCodeAt(1)];
+    if (n <= MAX_NUMERIC_LENGTH) return this.numeric.get(numericKey(code)) ?? -1;
+    return this.text.get(code) ?? -1;
   }
 
-  /** Returns false when the code has characters outside 33..126. */
+  /** Returns false when the code is empty or has characters outside 33..126. */
   set(code: string, index: number): boolean {
-    const bytes = asciiBytes(code);
-    if (!bytes || bytes.length === 0) return false;
-    const n = bytes.length;
-    if (n === 1) this.one[bytes[0]] = index;
-    else if (n === 2) this.two[(bytes[0] << 8) | bytes[1]] = index;
-    else if (n <= MAX_NUMERIC_LENGTH) {
-      let key = 0;
-      for (const b of bytes) key = key * 95 + (b - 32);
-      this.numeric.set(key, index);
-    } else this.text.set(code, index);
+    const n = code.length;
+    if (n === 0 || !printable(code)) return false;
+    if (n === 1) this.one[code.charCodeAt(0)] = index;
+    else if (n === 2) this.two[(code.charCodeAt(0) << 8) | code.charCodeAt(1)] = index;
+    else if (n <= MAX_NUMERIC_LENGTH) this.numeric.set(numericKey(code), index);
+    else this.text.set(code, index);
     return true;
   }
 }
 
-function asciiBytes(code: string): Uint8Array | null {
-  const out = new Uint8Array(code.length);
+/** Every character in 33..126 (§18.2.1). */
+function printable(code: string): boolean {
   for (let i = 0; i < code.length; i++) {
     const c = code.charCodeAt(i);
-    if (c < 33 || c > 126) return null;
-    out[i] = c;
+    if (c < 33 || c > 126) return false;
   }
-  return out;
+  return true;
+}
+
+/** The base-95 key lookup() computes from bytes, for a code of 3 to 7 printable characters. */
+function numericKey(code: string): number {
+  let key = 0;
+  for (let i = 0; i < code.length; i++) key = key * 95 + (code.charCodeAt(i) - 32);
+  return key;
 }

@@ -365,7 +365,7 @@ export class VcdParser {
 
   private token(buf: Uint8Array, s: number, e: number): void {
     if (this.mode === Mode.Body) this.bodyToken(buf, s, e);
-    else this.headerToken(TEXT.decode(buf.subarray(s, e)));
+    else this.headerToken(tokenText(buf, s, e));
   }
 
   // ---- Declarations (§18.2.3) ----
@@ -916,6 +916,21 @@ function readReal(text: string): number | null {
 function writtenStates(buf: Uint8Array, s: number, e: number): string {
   let out = '';
   for (let i = s; i < e; i++) out += LOGIC_CHARS[SCALAR[buf[i]]];
+  return out;
+}
+
+/**
+ * A token's text. Header tokens are short and nearly always ASCII, where building the string
+ * from char codes is several times cheaper than a TextDecoder call; anything else is decoded.
+ */
+function tokenText(buf: Uint8Array, s: number, e: number): string {
+  if (e - s > 64) return TEXT.decode(buf.subarray(s, e));
+  let out = '';
+  for (let i = s; i < e; i++) {
+    const c = buf[i];
+    if (c > 126) return TEXT.decode(buf.subarray(s, e));
+    out += String.fromCharCode(c);
+  }
   return out;
 }
 
