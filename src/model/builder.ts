@@ -1,8 +1,8 @@
 // Grows a Dump change by change. The parser feeds it; tests use it to build small dumps by hand.
 //
-// While parsing, every change is appended to one change log in file order: the signal index
-// (16 bits while there are fewer than 65,536 signals, else 32) and, for 1-bit signals, the state
-// code; vector planes and reals go to logs of their own. Appending is sequential, so it costs
+// While parsing, every change is appended to one change log in file order: one entry holding the
+// signal index and, for 1-bit signals, the state (16 bits while there are fewer than 16,384
+// signals, else 32); vector planes and reals go to logs of their own. Appending is sequential, so it costs
 // about what reading the bytes costs, whatever the number of signals. At finish() the counts are
 // known, so each signal's arrays are allocated at their exact size and the log is scattered into
 // them in one pass. Full log slabs are parked (see parkedSlabs.ts) and handed back to the system
@@ -26,8 +26,12 @@ import {
 } from './layout';
 import { ParkedSlabs } from './parkedSlabs';
 
-/** Log slabs hold 2^20 changes; tests pick tiny slabs so that every slab boundary is reached. */
-const SLAB_SHIFT = 20;
+/** Log slabs hold 2^18 changes (small enough that the hot ones left for the collector cost little); tests pick tiny slabs so that every slab boundary is reached. */
+const SLAB_SHIFT = 18;
+/** Log entries are 16-bit while there are fewer signals than this (14 bits of index, 2 of state). */
+const NARROW_SIGNALS = 1 << 14;
+/** Entry state for a Logic code kept in the rare log (z and the VHDL states). */
+const RARE = 3;
 const EMPTY_U8 = new Uint8Array(0);
 const EMPTY_U16 = new Uint16Array(0);
 const EMPTY_U32 = new Uint32Array(0);
@@ -75,18 +79,22 @@ export class DumpBuilder {
   private counts = new Int32Array(64);
   private uncounted = new Int32Array(64);
 
-  // Change log: the hot slab being written, and the full ones parked. A slab is 16-bit when it
-  // was started while fewer than 65,536 signals existed, so every index it holds fits. Every
-  // parked slab holds exactly `slab` entries, so log position p lies in parked slab floor(p / slab).
+  // Change log: the hot slab being written, and the full ones parked. An entry is
+  // `signal << 2 | state`, state 0, 1, 2 for the Logic codes 0, 1, x and 3 for any other (its code
+  // then waits in `rare`, in log order); entries of other kinds have state 0. A slab is 16-bit
+  // when it was started while fewer than 16,384 signals existed, so every entry it holds fits.
+  // Every parked slab holds exactly `slab` entries, so log position p lies in parked slab
+  // floor(p / slab).
   private logFill = 0;
   private logLen = 0;
+  private capacity = 0;
   private wideSlab = false;
-  private sig16: Uint16Array = EMPTY_U16;
-  private sig32: Uint32Array = EMPTY_U32;
-  private codes: Uint8Array = EMPTY_U8;
-  private parkedSigs = new ParkedSlabs();
+  private entries16: Uint16Array = EMPTY_U16;
+  private entries32: Uint32Array = EMPTY_U32;
+  private parkedEntries = new ParkedSlabs();
   private parkedWide: boolean[] = [];
-  private parkedCodes = new ParkedSlabs();
+  private rare: Uint8Array = EMPTY_U8;
+  private rareLen = 0;
   // Vector planes and reals, in log order (a change's plane words never straddle two slabs).
   private planeFill = 0;
   private planeSlab: Uint32Array = EMPTY_U32;
@@ -229,61 +237,63 @@ export class DumpBuilder {
   }
 
   private nextSlab(): number {
-    const len = this.codes.length;
+    const len = this.capacity;
     if (len > 0 && len < this.slab) {
       // The first slab starts small (small dumps stay small) and grows until full size.
       const size = Math.min(this.slab, len * 4);
-      const codes = new Uint8Array(size);
-      codes.set(this.codes);
-      this.codes = codes;
-      if (this.wideSlab) this.sig32 = grown(this.sig32, size, (n) => new Uint32Array(n));
+      if (this.wideSlab) this.entries32 = grown(this.entries32, size, (n) => new Uint32Array(n));
       else {
-        const sigs = new Uint16Array(size);
-        sigs.set(this.sig16);
-        this.sig16 = sigs;
+        const entries = new Uint16Array(size);
+        entries.set(this.entries16);
+        this.entries16 = entries;
       }
+      this.capacity = size;
       return len;
     }
-    const wide = this.sigs.length > 0xffff;
+    const wide = this.sigs.length >= NARROW_SIGNALS;
     if (len === 0) {
-      this.codes = new Uint8Array(this.firstSlab);
-      if (wide) this.sig32 = new Uint32Array(this.firstSlab);
-      else this.sig16 = new Uint16Array(this.firstSlab);
+      if (wide) this.entries32 = new Uint32Array(this.firstSlab);
+      else this.entries16 = new Uint16Array(this.firstSlab);
+      this.capacity = this.firstSlab;
     } else {
-      // Park the full slab and write the next one into the same (already resident) arrays.
-      this.parkedSigs.park(this.wideSlab ? this.sig32 : this.sig16, this.slab * (this.wideSlab ? 4 : 2));
+      // Park the full slab and write the next one into the same (already resident) array.
+      this.parkedEntries.park(this.wideSlab ? this.entries32 : this.entries16, this.slab * (this.wideSlab ? 4 : 2));
       this.parkedWide.push(this.wideSlab);
-      this.parkedCodes.park(this.codes, this.slab);
-      if (wide && this.sig32.length < this.slab) this.sig32 = new Uint32Array(this.slab);
-      if (!wide && this.sig16.length < this.slab) this.sig16 = new Uint16Array(this.slab);
+      if (wide && this.entries32.length < this.slab) this.entries32 = new Uint32Array(this.slab);
+      if (!wide && this.entries16.length < this.slab) this.entries16 = new Uint16Array(this.slab);
+      this.capacity = this.slab;
     }
     this.wideSlab = wide;
     this.logFill = 0;
     return 0;
   }
 
-  /** Appends a log entry for signal k; returns its place in the current slab. */
-  private append(k: number, counted: boolean): number {
+  /** Appends the log entry `k << 2 | state` for signal k. */
+  private append(k: number, state: number, counted: boolean): void {
     if (this.current < 0) this.setTime(0);
     let f = this.logFill;
-    if (f === this.codes.length) f = this.nextSlab();
-    if (this.wideSlab) this.sig32[f] = k;
-    else this.sig16[f] = k;
+    if (f === this.capacity) f = this.nextSlab();
+    if (this.wideSlab) this.entries32[f] = (k << 2) | state;
+    else this.entries16[f] = (k << 2) | state;
     this.logFill = f + 1;
     this.logLen++;
     this.counts[k]++;
     if (!counted) this.uncounted[k]++;
-    return f;
   }
 
   /** `counted` is false for values the parser adds itself (x at $dumpoff). */
   pushLogic(index: number, code: number, counted = true): void {
-    const f = this.append(index, counted);
-    this.codes[f] = code;
+    if (code < RARE) {
+      this.append(index, code, counted);
+      return;
+    }
+    this.append(index, RARE, counted);
+    if (this.rareLen === this.rare.length) this.rare = grown(this.rare, Math.max(64, this.rareLen * 2), (n) => new Uint8Array(n));
+    this.rare[this.rareLen++] = code;
   }
 
   pushReal(index: number, value: number, counted = true): void {
-    this.append(index, counted);
+    this.append(index, 0, counted);
     if (this.realFill === this.realSlab.length) {
       const len = this.realSlab.length;
       if (len > 0 && len < this.realSlabSize) this.realSlab = grown(this.realSlab, Math.min(this.realSlabSize, len * 4), (n) => new Float64Array(n));
@@ -316,7 +326,7 @@ export class DumpBuilder {
    * `text` is set only for values holding states beyond 0/1/x/z.
    */
   pushVector(index: number, value: Uint32Array, unknown: Uint32Array, text: string | null, counted = true): void {
-    this.append(index, counted);
+    this.append(index, 0, counted);
     const words = this.words[index];
     const slab = this.planeRoom(2 * words);
     const at = this.planeFill;
@@ -330,7 +340,7 @@ export class DumpBuilder {
 
   /** Vector of at most 32 bits, given as its two plane words. */
   pushVectorWord(index: number, value: number, unknown: number, text: string | null): void {
-    this.append(index, true);
+    this.append(index, 0, true);
     const slab = this.planeRoom(2);
     const at = this.planeFill;
     slab[at] = value;
@@ -341,7 +351,7 @@ export class DumpBuilder {
 
   /** String value (kind 'string'), kept as written. */
   pushText(index: number, text: string, counted = true): void {
-    this.append(index, counted);
+    this.append(index, 0, counted);
     this.texts.set(this.logLen - 1, text);
   }
 
@@ -353,7 +363,7 @@ export class DumpBuilder {
 
   /** Log position of the hot slab's first entry. */
   private get hotStart(): number {
-    return this.parkedSigs.count * this.slab;
+    return this.parkedEntries.count * this.slab;
   }
 
   /** Log position where the current timestamp's changes begin (it is always in the hot slab). */
@@ -369,14 +379,16 @@ export class DumpBuilder {
       if (pos < this.hotStart) {
         // Step back into the previous slab.
         const wide = this.parkedWide.pop()!;
-        if (wide && this.sig32.length < this.slab) this.sig32 = new Uint32Array(this.slab);
-        if (!wide && this.sig16.length < this.slab) this.sig16 = new Uint16Array(this.slab);
-        this.parkedSigs.popInto(wide ? this.sig32 : this.sig16);
-        this.parkedCodes.popInto(this.codes);
+        if (wide && this.entries32.length < this.slab) this.entries32 = new Uint32Array(this.slab);
+        if (!wide && this.entries16.length < this.slab) this.entries16 = new Uint16Array(this.slab);
+        this.parkedEntries.popInto(wide ? this.entries32 : this.entries16);
         this.wideSlab = wide;
+        this.capacity = this.slab;
       }
       const at = pos - this.hotStart;
-      const k = this.wideSlab ? this.sig32[at] : this.sig16[at];
+      const entry = this.wideSlab ? this.entries32[at] : this.entries16[at];
+      const k = entry >>> 2;
+      if ((entry & 3) === RARE && this.kinds[k] === KIND_LOGIC) this.rareLen--;
       this.counts[k]--;
       this.texts.delete(pos);
       const kind = this.kinds[k];
@@ -452,17 +464,17 @@ export class DumpBuilder {
     // The hot slabs are parked too, so that every slab is read the same way: copied back into
     // the hot arrays (already resident, and as long as any parked slab) and released at once.
     if (this.logFill > 0) {
-      this.parkedSigs.park(this.wideSlab ? this.sig32 : this.sig16, this.logFill * (this.wideSlab ? 4 : 2));
+      this.parkedEntries.park(this.wideSlab ? this.entries32 : this.entries16, this.logFill * (this.wideSlab ? 4 : 2));
       this.parkedWide.push(this.wideSlab);
-      this.parkedCodes.park(this.codes, this.logFill);
     }
     if (this.planeFill > 0) this.parkedPlanes.park(this.planeSlab, this.planeFill * 4);
     if (this.realFill > 0) this.parkedReals.park(this.realSlab, this.realFill * 8);
-    const slabs = this.parkedSigs.count;
-    const longest = Math.max(this.codes.length, this.sig16.length, this.sig32.length);
-    const scratch16 = this.sig16.length >= longest || !this.parkedWide.includes(false) ? this.sig16 : new Uint16Array(longest);
-    const scratch32 = this.sig32.length >= longest || !this.parkedWide.includes(true) ? this.sig32 : new Uint32Array(longest);
-    const scratchCodes = this.codes;
+    const slabs = this.parkedEntries.count;
+    const longest = Math.max(this.entries16.length, this.entries32.length);
+    const scratch16 = this.entries16.length >= longest || !this.parkedWide.includes(false) ? this.entries16 : new Uint16Array(longest);
+    const scratch32 = this.entries32.length >= longest || !this.parkedWide.includes(true) ? this.entries32 : new Uint32Array(longest);
+    const rare = this.rare;
+    let rareAt = 0;
     // No closures below: variables a closure writes live on the heap, not in registers, and
     // this loop runs once per change.
     const planes = this.planeSlab;
@@ -489,9 +501,7 @@ export class DumpBuilder {
     let nextStep = timeCount > 1 ? steps[1] : logLen;
     for (let s = 0, pos = 0; s < slabs && pos < logLen; s++) {
       const sl = this.parkedWide[s] ? scratch32 : scratch16;
-      this.parkedSigs.takeInto(s, sl);
-      this.parkedCodes.takeInto(s, scratchCodes);
-      const cl = scratchCodes;
+      this.parkedEntries.takeInto(s, sl);
       const slabEnd = pos + Math.min(this.slab, logLen - pos);
       const slabStart = pos;
       while (pos < slabEnd) {
@@ -512,11 +522,15 @@ export class DumpBuilder {
         const step = place.stepBase + local;
         const runEnd = nextStep < slabEnd ? nextStep : slabEnd;
         for (let i = pos - slabStart, end = runEnd - slabStart; i < end; i++) {
-          const k = sl[i];
+          const entry = sl[i];
+          const k = entry >>> 2;
           const t = curT[k]++;
           allT[t] = step;
           const kind = kinds[k];
-          if (kind === KIND_LOGIC) allL[t + offL[k]] = cl[i];
+          if (kind === KIND_LOGIC) {
+            const state = entry & 3;
+            allL[t + offL[k]] = state === RARE ? rare[rareAt++] : state;
+          }
           else if (kind === KIND_VECTOR) {
             const w = stride[k];
             if (planeAt + w > planeUsed) {
@@ -542,16 +556,16 @@ export class DumpBuilder {
         pos = runEnd;
       }
     }
-    this.parkedSigs.clear();
-    this.parkedCodes.clear();
+    this.parkedEntries.clear();
     this.parkedPlanes.clear();
     this.parkedReals.clear();
     this.parkedWide = [];
     this.parkedSteps.clear();
     this.stepHot = EMPTY_U32;
-    this.sig16 = EMPTY_U16;
-    this.sig32 = EMPTY_U32;
-    this.codes = EMPTY_U8;
+    this.entries16 = EMPTY_U16;
+    this.entries32 = EMPTY_U32;
+    this.rare = EMPTY_U8;
+    this.rareLen = 0;
     this.planeSlab = EMPTY_U32;
     this.realSlab = EMPTY_F64;
     this.texts = new Map();
