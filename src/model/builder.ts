@@ -2,12 +2,14 @@
 //
 // While parsing, every change is appended to one change log in file order: one entry holding the
 // signal index and, for 1-bit signals, the state (16 bits while there are fewer than 16,384
-// signals, else 32); vector planes and reals go to logs of their own. Appending is sequential, so it costs
-// about what reading the bytes costs, whatever the number of signals. At finish() the counts are
-// known, so each signal's arrays are allocated at their exact size and the log is scattered into
-// them in one pass. Full log slabs are parked (see parkedSlabs.ts) and handed back to the system
-// one by one as the scatter reads them, so the peak is about the final arrays (5 bytes per 1-bit
-// change), not the log (3 bytes) plus them.
+// signals, else 32); vector planes and reals go to logs of their own. Appending is sequential, so
+// it costs about what reading the bytes costs, whatever the number of signals. At finish() the
+// counts are known, so each signal's arrays are allocated at their exact size (layout.ts) and the
+// log is scattered into them in one pass. Full log slabs are parked (see parkedSlabs.ts) and
+// handed back to the system one by one as the scatter reads them, so the peak is about the final
+// arrays (5 bytes per 1-bit change), not the log (2 bytes) plus them. Where every signal's share
+// of the arrays is smaller than a memory page (many nets, few changes each), the scatter touches
+// every page early and the two do coexist.
 
 import type { Dump, DumpWarning, Net, Scope, Signal, SignalKind, Timescale } from './dump';
 import { wordsFor } from './dump';
