@@ -5,8 +5,7 @@
 
 import { closeSync, openSync, readSync } from 'node:fs';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
-import type { DumpArrays, PartPlacement } from '../model/layout';
-import { PartReader } from '../parse/parts';
+import { PartReader, servePart } from '../parse/parts';
 
 /** Marks the worker's workerData so a stray import never starts serving. */
 export const PART_ROLE = 'midrail-parse-part';
@@ -22,8 +21,6 @@ export interface PartJob {
   end: number;
 }
 
-export type PartRequest = { kind: 'close'; lineAtStart: number } | { kind: 'place'; arrays: DumpArrays; placement: PartPlacement };
-
 /** Bytes read per piece from a plain file into one reused buffer. */
 export const READ_PIECE = 4 * 1024 * 1024;
 
@@ -38,41 +35,30 @@ export function readAt(fd: number, buf: Uint8Array, position: number): number {
   return n;
 }
 
-function serve(job: PartJob): void {
+async function serve(job: PartJob): Promise<void> {
   const port = parentPort!;
-  let reader: PartReader;
-  try {
-    const fd = openSync(job.path, 'r');
-    try {
-      const header = new Uint8Array(job.headerEnd);
-      readAt(fd, header, 0);
-      reader = new PartReader(job.source, header, job.start);
-      const piece = new Uint8Array(Math.min(READ_PIECE, job.end - job.start));
-      for (let at = job.start; at < job.end; ) {
-        const n = readAt(fd, piece.subarray(0, Math.min(piece.length, job.end - at)), at);
-        if (n === 0) break;
-        reader.push(piece.subarray(0, n));
-        at += n;
+  const answer = await servePart(
+    async () => {
+      const fd = openSync(job.path, 'r');
+      try {
+        const header = new Uint8Array(job.headerEnd);
+        readAt(fd, header, 0);
+        const reader = new PartReader(job.source, header, job.start);
+        const piece = new Uint8Array(Math.min(READ_PIECE, job.end - job.start));
+        for (let at = job.start; at < job.end; ) {
+          const n = readAt(fd, piece.subarray(0, Math.min(piece.length, job.end - at)), at);
+          if (n === 0) break;
+          reader.push(piece.subarray(0, n));
+          at += n;
+        }
+        return reader;
+      } finally {
+        closeSync(fd);
       }
-    } finally {
-      closeSync(fd);
-    }
-    port.postMessage({ kind: 'read', read: reader.read() });
-  } catch (err) {
-    port.postMessage({ kind: 'error', message: (err as Error).message });
-    return;
-  }
-  port.on('message', (req: PartRequest) => {
-    try {
-      if (req.kind === 'close') port.postMessage({ kind: 'closed', closed: reader.close(req.lineAtStart) });
-      else {
-        const placed = reader.place(req.arrays, req.placement);
-        port.postMessage({ kind: 'placed', placed }, [placed.times.buffer as ArrayBuffer]);
-      }
-    } catch (err) {
-      port.postMessage({ kind: 'error', message: (err as Error).message });
-    }
-  });
+    },
+    (reply, transfer) => port.postMessage(reply, transfer ?? []),
+  );
+  port.on('message', answer);
 }
 
-if (!isMainThread && (workerData as PartJob | null)?.role === PART_ROLE) serve(workerData as PartJob);
+if (!isMainThread && (workerData as PartJob | null)?.role === PART_ROLE) void serve(workerData as PartJob);

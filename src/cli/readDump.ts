@@ -9,6 +9,7 @@ import { basename } from 'node:path';
 import { createGunzip } from 'node:zlib';
 import type { Dump } from '../model/dump';
 import { VcdParser } from '../parse/vcd';
+import { MAX_READING_THREADS, PARTS_FROM_BYTES, readingThreads } from '../parse/parts';
 import { READ_PIECE, readAt } from './parsePart';
 import { partWorkerScript, readDumpInParts } from './readParts';
 import { UsageError } from './run';
@@ -18,7 +19,7 @@ export interface ReadDumpOptions {
   allowTruncated?: boolean;
   /** Where warnings go; stderr by default. */
   warn?: (message: string) => void;
-  /** Threads that may read one file (default: half the cores, at most 4); 1 reads it in one piece. */
+  /** Threads that may read one file (default: see readingThreads); 1 reads it in one piece. */
   threads?: number;
   /** The built part worker (default: parsePart.js beside this module). */
   partWorker?: string;
@@ -26,28 +27,11 @@ export interface ReadDumpOptions {
   onOnePiece?: (why: string) => void;
 }
 
-/**
- * Below 256 MiB, one reading thread per two cores, so the engine's own compiler and collector
- * threads keep a core: on a 2-core machine two reading threads measured no faster than one on
- * 50–100 MB (npm run bench, section parse). From 256 MiB, one per core: there they measured
- * 1.2–1.4× faster on the same machine.
- */
-function defaultThreads(size: number): number {
-  const cores = availableParallelism();
-  return size >= ALL_CORES_FROM_BYTES ? cores : Math.max(1, Math.floor(cores / 2));
-}
-
-const ALL_CORES_FROM_BYTES = 256 * 1024 * 1024;
-
 /** MIDRAIL_READ_THREADS=N sets the reading threads (1: one piece, to compare or on a shared machine). */
 function threadsFromEnvironment(): number | null {
   const n = Number(process.env.MIDRAIL_READ_THREADS);
   return Number.isInteger(n) && n >= 1 ? n : null;
 }
-
-/** Files smaller than this are read in one piece: starting threads would cost more than it saves. */
-export const PARTS_FROM_BYTES = 32 * 1024 * 1024;
-const MAX_THREADS = 4;
 
 const PIECE = 16 * 1024 * 1024;
 let readPiece: Uint8Array | null = null;
@@ -73,7 +57,7 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
   }
   const gz = await isGzip(path);
   const size = (await stat(path)).size;
-  const threads = Math.min(options.threads ?? threadsFromEnvironment() ?? defaultThreads(size), MAX_THREADS);
+  const threads = Math.min(options.threads ?? threadsFromEnvironment() ?? readingThreads(size, availableParallelism()), MAX_READING_THREADS);
   const script = options.partWorker ?? partWorkerScript();
   const debug = process.env.MIDRAIL_DEBUG_READ ? (m: string) => process.stderr.write(`midrail: ${path}: ${m}\n`) : null;
   if (!gz && size >= PARTS_FROM_BYTES && threads > 1 && script) {
