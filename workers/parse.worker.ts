@@ -4,7 +4,9 @@
 
 import * as Comlink from 'comlink';
 import { type Dump, dumpBuffers } from '../src/model/dump';
+import { PARTS_FROM_BYTES, type PartPort, type PartReply, portPart, readInParts, readingThreads } from '../src/parse/parts';
 import { VcdError, VcdParser } from '../src/parse/vcd';
+import type { PartWorkerJob } from './parsePart.worker';
 
 /** Bytes per slice: small enough for a smooth progress bar, large enough to parse fast. */
 const SLICE = 1 << 20;
@@ -17,7 +19,8 @@ export interface ParseFailure {
   cancelled: boolean;
 }
 
-export type ParseResult = { ok: true; dump: Dump } | { ok: false; error: ParseFailure };
+/** `threads`: how many threads read the dump (1: in one piece). */
+export type ParseResult = { ok: true; dump: Dump; threads: number } | { ok: false; error: ParseFailure };
 
 export type Progress = (bytesDone: number, bytesTotal: number) => void | Promise<void>;
 
@@ -94,7 +97,6 @@ function failure(e: unknown, source: string): ParseFailure {
 }
 
 async function run(source: string, input: ReadableStream<Uint8Array>, total: number, onProgress?: Progress): Promise<ParseResult> {
-  cancelled = false;
   let done = 0;
   let lastReport = 0;
   let gzipped = false;
@@ -113,7 +115,7 @@ async function run(source: string, input: ReadableStream<Uint8Array>, total: num
         if (gzipped && parser.bytesRead > 0) {
           const dump = cutShort(parser.finish(), source, (e as Error).message);
           if (onProgress) await onProgress(done, total);
-          return Comlink.transfer({ ok: true as const, dump }, dumpBuffers(dump));
+          return Comlink.transfer({ ok: true as const, dump, threads: 1 }, dumpBuffers(dump));
         }
         throw e;
       }
@@ -126,25 +128,119 @@ async function run(source: string, input: ReadableStream<Uint8Array>, total: num
       }
       if (cancelled) {
         await reader.cancel('cancelled');
-        return { ok: false, error: { message: `${source}: loading cancelled`, line: null, offset: null, cancelled: true } };
+        return cancelledResult(source);
       }
     }
     const dump = parser.finish();
     if (onProgress) await onProgress(done, total);
-    return Comlink.transfer({ ok: true as const, dump }, dumpBuffers(dump));
+    return Comlink.transfer({ ok: true as const, dump, threads: 1 }, dumpBuffers(dump));
   } catch (e) {
     return { ok: false, error: failure(e, source) };
   }
 }
 
+/** The part workers of a read in parts now running (stopped by cancel). */
+const partPorts = new Set<PartPort>();
+
+/** A part Web Worker as a PartPort; stopping it counts as its going away. */
+function partPort(job: PartWorkerJob): PartPort {
+  const worker = new Worker(new URL('./parsePart.worker.ts', import.meta.url), { type: 'module', name: 'midrail-parse-part' });
+  let gone: ((why: string) => void) | null = null;
+  const port: PartPort = {
+    send: (req) => worker.postMessage(req),
+    listen(onReply, onGone) {
+      gone = onGone;
+      worker.onmessage = (e: MessageEvent<PartReply>) => onReply(e.data);
+      worker.onerror = (e) => onGone(e.message || 'the part worker failed');
+    },
+    stop() {
+      worker.terminate();
+      partPorts.delete(port);
+      gone?.('stopped');
+    },
+  };
+  partPorts.add(port);
+  worker.postMessage(job);
+  return port;
+}
+
+async function isGzipBlob(file: Blob): Promise<boolean> {
+  const head = new Uint8Array(await file.slice(0, 2).arrayBuffer());
+  return head.length === 2 && head[0] === 0x1f && head[1] === 0x8b;
+}
+
+/**
+ * Reads a big plain file with several threads (src/parse/parts.ts): this worker reads the header
+ * and the first range, part workers the rest, and the parts are joined on SharedArrayBuffers.
+ * Returns null when the file must be read in one piece (the caller then does).
+ */
+async function runInParts(file: Blob, source: string, threads: number, onProgress?: Progress): Promise<ParseResult | null> {
+  const partBytes: number[] = [];
+  let firstBytes = 0;
+  let lastReport = 0;
+  const report = (force: boolean) => {
+    const done = firstBytes + partBytes.reduce((a, b) => a + b, 0);
+    if (!onProgress || (!force && done - lastReport < SLICE)) return;
+    lastReport = done;
+    return onProgress(done, file.size);
+  };
+  try {
+    const joined = await readInParts(
+      {
+        source,
+        size: file.size,
+        read: async (offset, length) => new Uint8Array(await file.slice(offset, Math.min(file.size, offset + length)).arrayBuffer()),
+        spawn: (range) => {
+          const index = partBytes.push(0) - 1;
+          return portPart(partPort({ file, source, ...range }), (bytes) => {
+            partBytes[index] = bytes;
+            void report(false);
+          });
+        },
+        progress: async (bytes) => {
+          firstBytes = bytes;
+          // Awaiting the round trip also lets a cancel() message in between pieces.
+          await report(false);
+        },
+        stopped: () => cancelled,
+      },
+      threads,
+      SLICE,
+    );
+    if (joined === 'stopped' || cancelled) return cancelledResult(source);
+    if (typeof joined === 'string') return null;
+    firstBytes = file.size;
+    partBytes.fill(0);
+    await report(true);
+    return Comlink.transfer({ ok: true as const, dump: joined, threads }, dumpBuffers(joined));
+  } catch (e) {
+    return cancelled ? cancelledResult(source) : { ok: false, error: failure(e, source) };
+  }
+}
+
+function cancelledResult(source: string): ParseResult {
+  return { ok: false, error: { message: `${source}: loading cancelled`, line: null, offset: null, cancelled: true } };
+}
+
 const api = {
-  /** Parses a File or Blob chosen by the user (picker or drop). */
-  async parseFile(file: Blob, name: string, onProgress?: Progress): Promise<ParseResult> {
+  /**
+   * Parses a File or Blob chosen by the user (picker or drop). A big plain file on a cross-origin
+   * isolated page is read by several threads (`threads`, default by readingThreads).
+   */
+  async parseFile(file: Blob, name: string, onProgress?: Progress, threads?: number): Promise<ParseResult> {
+    cancelled = false;
+    const wanted = threads ?? readingThreads(file.size, navigator.hardwareConcurrency || 1);
+    if (wanted > 1 && file.size >= PARTS_FROM_BYTES && self.crossOriginIsolated === true && !(await isGzipBlob(file))) {
+      const inParts = await runInParts(file, name, wanted, onProgress);
+      if (inParts) return inParts;
+      if (cancelled) return cancelledResult(name);
+    }
     return run(name, sliceStream(file), file.size, onProgress);
   },
 
   /** Parses a same-origin URL (the page checks the origin before asking). */
   async parseUrl(url: string, name: string, onProgress?: Progress): Promise<ParseResult> {
+    cancelled = false;
     let res: Response;
     try {
       res = await fetch(url, { credentials: 'same-origin' });
@@ -158,9 +254,10 @@ const api = {
     return run(name, res.body, total, onProgress);
   },
 
-  /** Stops the running parse at the next chunk boundary. */
+  /** Stops the running parse at the next chunk boundary (and any part workers at once). */
   cancel(): void {
     cancelled = true;
+    for (const port of [...partPorts]) port.stop();
   },
 };
 

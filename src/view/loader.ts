@@ -50,7 +50,9 @@ export class Loader {
 
   openFile(file: File): Promise<void> {
     const api = this.start();
-    return this.track(file.name, file.size, (cb) => api.parseFile(file, file.name, cb));
+    // ?readThreads=N sets how many threads read a big file (1: in one piece), to compare.
+    const threads = Number(new URLSearchParams(window.location.search).get('readThreads')) || undefined;
+    return this.track(file.name, file.size, (cb) => api.parseFile(file, file.name, cb, threads));
   }
 
   /** Opens a same-origin URL; anything else is refused before a request is made. */
@@ -103,6 +105,8 @@ export class Loader {
     this.busy = false;
     box.hidden = true;
     box.dataset.state = 'idle';
+    // How the last dump was read, for anyone checking (tests, a curious user in devtools).
+    box.dataset.readThreads = result.ok ? String(result.threads) : '';
     if (result.ok) this.hooks.loaded(result.dump);
     else this.hooks.failed(name, result.error);
   }

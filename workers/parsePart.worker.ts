@@ -1,0 +1,41 @@
+// One range of a dump read in parts (src/parse/parts.ts), in a Web Worker that parse.worker.ts
+// starts: reads the header and its range from the File in slices, reports progress, then answers
+// the requests to close its input and to place its changes in the shared arrays.
+
+import { PartReader, type PartReply, type PartRequest, servePart } from '../src/parse/parts';
+
+export interface PartWorkerJob {
+  file: Blob;
+  source: string;
+  headerEnd: number;
+  start: number;
+  end: number;
+}
+
+const SLICE = 1 << 20;
+/** Progress is sent after every this many bytes. */
+const PROGRESS_STEP = 4 * SLICE;
+
+const post = (reply: PartReply, transfer: Transferable[] = []) => self.postMessage(reply, { transfer });
+
+self.onmessage = async (first: MessageEvent<PartWorkerJob>) => {
+  const job = first.data;
+  // Requests come only after the range is read (see portPart).
+  self.onmessage = null;
+  const answer = await servePart(async () => {
+    const header = new Uint8Array(await job.file.slice(0, job.headerEnd).arrayBuffer());
+    const reader = new PartReader(job.source, header, job.start);
+    let reported = 0;
+    for (let at = job.start; at < job.end; ) {
+      const end = Math.min(job.end, at + SLICE);
+      reader.push(new Uint8Array(await job.file.slice(at, end).arrayBuffer()));
+      at = end;
+      if (at - job.start - reported >= PROGRESS_STEP || at === job.end) {
+        reported = at - job.start;
+        post({ kind: 'progress', bytes: reported });
+      }
+    }
+    return reader;
+  }, post);
+  self.onmessage = (e: MessageEvent<PartRequest>) => answer(e.data);
+};
