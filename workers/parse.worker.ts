@@ -1,11 +1,13 @@
-// Parses a dump off the main thread. Reads a File in slices (or a same-origin URL as a
-// stream), gunzips when the bytes start with the gzip magic, reports progress in input bytes,
-// stops between chunks when cancelled, and transfers the finished Dump's typed arrays.
+// Parses a dump off the main thread. Reads a File in pieces into one reused buffer (see
+// blobPieces.ts), or a same-origin URL as a stream; gunzips when the bytes start with the gzip
+// magic; reports progress in input bytes; stops between pieces when cancelled; and transfers the
+// finished Dump's typed arrays. A big plain File may be read by several workers (runInParts).
 
 import * as Comlink from 'comlink';
 import { type Dump, dumpBuffers } from '../src/model/dump';
 import { PARTS_FROM_BYTES, type PartPort, type PartReply, portPart, readInParts, readingThreads } from '../src/parse/parts';
 import { VcdError, VcdParser } from '../src/parse/vcd';
+import { type BlobPieces, blobPieces, streamPieces } from './blobPieces';
 import type { PartWorkerJob } from './parsePart.worker';
 
 /** Bytes per slice: small enough for a smooth progress bar, large enough to parse fast. */
@@ -25,23 +27,6 @@ export type ParseResult = { ok: true; dump: Dump; threads: number } | { ok: fals
 export type Progress = (bytesDone: number, bytesTotal: number) => void | Promise<void>;
 
 let cancelled = false;
-
-/** A stream of a Blob's bytes in SLICE-sized pieces. */
-function sliceStream(blob: Blob): ReadableStream<Uint8Array> {
-  let at = 0;
-  return new ReadableStream<Uint8Array>({
-    async pull(ctrl) {
-      if (at >= blob.size) {
-        ctrl.close();
-        return;
-      }
-      const end = Math.min(blob.size, at + SLICE);
-      const buf = await blob.slice(at, end).arrayBuffer();
-      at = end;
-      ctrl.enqueue(new Uint8Array(buf));
-    },
-  });
-}
 
 /** Counts bytes passing through, for progress in terms of the input file. */
 function counting(stream: ReadableStream<Uint8Array>, onBytes: (n: number) => void): ReadableStream<Uint8Array> {
@@ -96,47 +81,59 @@ function failure(e: unknown, source: string): ParseFailure {
   return { message: `${source}: could not read the dump: ${msg}${hint}`, line: null, offset: null, cancelled: false };
 }
 
-async function run(source: string, input: ReadableStream<Uint8Array>, total: number, onProgress?: Progress): Promise<ParseResult> {
-  let done = 0;
+/**
+ * Parses `pieces` in this worker. `done()` is the input bytes read so far (compressed bytes for a
+ * .gz), for progress against `total`; `gzipped()` says whether the bytes are being gunzipped.
+ */
+async function run(source: string, pieces: BlobPieces, done: () => number, total: number, onProgress?: Progress, gzipped = () => false): Promise<ParseResult> {
   let lastReport = 0;
-  let gzipped = false;
-  const stream = await maybeGunzip(counting(input, (n) => (done += n)), () => (gzipped = true));
   // On a cross-origin isolated page the finished arrays go on SharedArrayBuffers, so the page and
   // the measuring worker read one copy of the dump.
   const parser = new VcdParser(source, {}, { shared: self.crossOriginIsolated === true });
-  const reader = stream.getReader();
   try {
     for (;;) {
-      let r: ReadableStreamReadResult<Uint8Array>;
+      let bytes: Uint8Array;
       try {
-        r = await reader.read();
+        bytes = await pieces.next(SLICE);
       } catch (e) {
         // A .gz cut short: keep what was decompressed, as for any dump that stops early.
-        if (gzipped && parser.bytesRead > 0) {
+        if (gzipped() && parser.bytesRead > 0) {
           const dump = cutShort(parser.finish(), source, (e as Error).message);
-          if (onProgress) await onProgress(done, total);
+          if (onProgress) await onProgress(done(), total);
           return Comlink.transfer({ ok: true as const, dump, threads: 1 }, dumpBuffers(dump));
         }
         throw e;
       }
-      if (r.done) break;
-      parser.push(r.value);
-      if (onProgress && (done - lastReport >= SLICE / 2 || done === total)) {
-        lastReport = done;
-        // Awaiting the round trip also lets a cancel() message in between chunks.
-        await onProgress(done, total);
+      if (bytes.length === 0) break;
+      parser.push(bytes);
+      if (onProgress && (done() - lastReport >= SLICE / 2 || done() === total)) {
+        lastReport = done();
+        // Awaiting the round trip also lets a cancel() message in between pieces.
+        await onProgress(done(), total);
       }
       if (cancelled) {
-        await reader.cancel('cancelled');
+        pieces.cancel();
         return cancelledResult(source);
       }
     }
     const dump = parser.finish();
-    if (onProgress) await onProgress(done, total);
+    if (onProgress) await onProgress(done(), total);
     return Comlink.transfer({ ok: true as const, dump, threads: 1 }, dumpBuffers(dump));
   } catch (e) {
+    pieces.cancel();
     return { ok: false, error: failure(e, source) };
   }
+}
+
+/** Parses a stream that may be gzipped (a .gz File, a fetched body), counting its raw bytes. */
+async function runStream(source: string, input: ReadableStream<Uint8Array>, total: number, onProgress?: Progress): Promise<ParseResult> {
+  let read = 0;
+  let gzipped = false;
+  const stream = await maybeGunzip(
+    counting(input, (n) => (read += n)),
+    () => (gzipped = true),
+  );
+  return run(source, streamPieces(stream), () => read, total, onProgress, () => gzipped);
 }
 
 /** The part workers of a read in parts now running (stopped by cancel). */
@@ -176,6 +173,7 @@ async function isGzipBlob(file: Blob): Promise<boolean> {
  */
 async function runInParts(file: Blob, source: string, threads: number, onProgress?: Progress): Promise<ParseResult | null> {
   const partBytes: number[] = [];
+  const firstPieces = blobPieces(file, SLICE);
   let firstBytes = 0;
   let lastReport = 0;
   const report = (force: boolean) => {
@@ -189,7 +187,8 @@ async function runInParts(file: Blob, source: string, threads: number, onProgres
       {
         source,
         size: file.size,
-        read: async (offset, length) => new Uint8Array(await file.slice(offset, Math.min(file.size, offset + length)).arrayBuffer()),
+        next: (max) => firstPieces.next(max),
+        window: async (offset, length) => new Uint8Array(await file.slice(offset, Math.min(file.size, offset + length)).arrayBuffer()),
         spawn: (range) => {
           const index = partBytes.push(0) - 1;
           return portPart(partPort({ file, source, ...range }), (bytes) => {
@@ -207,6 +206,7 @@ async function runInParts(file: Blob, source: string, threads: number, onProgres
       threads,
       SLICE,
     );
+    firstPieces.cancel();
     if (joined === 'stopped' || cancelled) return cancelledResult(source);
     if (typeof joined === 'string') return null;
     firstBytes = file.size;
@@ -229,13 +229,24 @@ const api = {
    */
   async parseFile(file: Blob, name: string, onProgress?: Progress, threads?: number): Promise<ParseResult> {
     cancelled = false;
+    if (await isGzipBlob(file)) return runStream(name, file.stream(), file.size, onProgress);
     const wanted = threads ?? readingThreads(file.size, navigator.hardwareConcurrency || 1);
-    if (wanted > 1 && file.size >= PARTS_FROM_BYTES && self.crossOriginIsolated === true && !(await isGzipBlob(file))) {
+    if (wanted > 1 && file.size >= PARTS_FROM_BYTES && self.crossOriginIsolated === true) {
       const inParts = await runInParts(file, name, wanted, onProgress);
       if (inParts) return inParts;
       if (cancelled) return cancelledResult(name);
     }
-    return run(name, sliceStream(file), file.size, onProgress);
+    const pieces = blobPieces(file, SLICE);
+    let read = 0;
+    const counted: BlobPieces = {
+      next: async (max) => {
+        const bytes = await pieces.next(max);
+        read += bytes.length;
+        return bytes;
+      },
+      cancel: () => pieces.cancel(),
+    };
+    return run(name, counted, () => read, file.size, onProgress);
   },
 
   /** Parses a same-origin URL (the page checks the origin before asking). */
@@ -251,7 +262,7 @@ const api = {
       return { ok: false, error: { message: `${name}: could not fetch ${url}: HTTP ${res.status} ${res.statusText}`, line: null, offset: null, cancelled: false } };
     }
     const total = Number(res.headers.get('content-length') ?? 0) || 0;
-    return run(name, res.body, total, onProgress);
+    return runStream(name, res.body, total, onProgress);
   },
 
   /** Stops the running parse at the next chunk boundary (and any part workers at once). */

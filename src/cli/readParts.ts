@@ -46,12 +46,21 @@ export async function readDumpInParts(path: string, size: number, parts: number,
   const source = basename(path);
   const fd = openSync(path, 'r');
   const buffer = new Uint8Array(READ_PIECE);
+  let at = 0;
   try {
     const joined = await readInParts(
       {
         source,
         size,
-        read: async (offset, length) => buffer.subarray(0, readAt(fd, buffer.subarray(0, Math.min(length, buffer.length)), offset)),
+        next: async (max) => {
+          const n = readAt(fd, buffer.subarray(0, Math.min(max, buffer.length)), at);
+          at += n;
+          return buffer.subarray(0, n);
+        },
+        window: async (offset, length) => {
+          const bytes = new Uint8Array(length);
+          return bytes.subarray(0, readAt(fd, bytes, offset));
+        },
         spawn: (range) => portPart(workerPort(script, { role: PART_ROLE, path, source, ...range })),
       },
       parts,

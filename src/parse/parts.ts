@@ -238,8 +238,10 @@ export function cutTargets(bodyStart: number, size: number, parts: number): numb
 export interface PartsSource {
   source: string;
   size: number;
-  /** Bytes [offset, offset + length), fewer only at the end of the file; valid until the next call. */
-  read(offset: number, length: number): Promise<Uint8Array>;
+  /** The file's next bytes from its start, at most `max` (empty only at the end); valid until the next call. */
+  next(max: number): Promise<Uint8Array>;
+  /** Bytes [offset, offset + length) to look for a cut in; fewer only at the end of the file. */
+  window(offset: number, length: number): Promise<Uint8Array>;
   /** Starts a part that reads the header (its first `headerEnd` bytes) and then [start, end). */
   spawn(job: { headerEnd: number; start: number; end: number }): PartHandle;
   /** Told the bytes this thread has read so far, between pieces. */
@@ -259,7 +261,7 @@ export async function readInParts(src: PartsSource, parts: number, piece: number
   try {
     let at = 0;
     while (first.bodyStart < 0 && at < src.size) {
-      const bytes = await src.read(at, piece);
+      const bytes = await src.next(piece);
       if (bytes.length === 0) break;
       first.push(bytes);
       at += bytes.length;
@@ -268,7 +270,7 @@ export async function readInParts(src: PartsSource, parts: number, piece: number
     const cuts: number[] = [];
     for (const target of cutTargets(first.bodyStart, src.size, parts)) {
       const from = Math.max(target, at, cuts.length ? cuts[cuts.length - 1] + 1 : 0) - 1;
-      const found = firstTimestampLine(await src.read(from, CUT_WINDOW), 1);
+      const found = firstTimestampLine(await src.window(from, CUT_WINDOW), 1);
       if (found >= 0) cuts.push(from + found);
     }
     if (cuts.length === 0) return 'no timestamp line to cut at';
@@ -276,7 +278,7 @@ export async function readInParts(src: PartsSource, parts: number, piece: number
     // The first range, read here while the parts read theirs.
     while (at < cuts[0]) {
       if (src.stopped?.()) return 'stopped';
-      const bytes = await src.read(at, Math.min(piece, cuts[0] - at));
+      const bytes = await src.next(Math.min(piece, cuts[0] - at));
       if (bytes.length === 0) break;
       first.push(bytes);
       at += bytes.length;

@@ -224,7 +224,7 @@ async function dropToTraces(browser: Browser, base: string, opts: BenchOptions):
         ['parse + progress round trips', fixed(c.ms), speed(c.ms), runs(chatty), `as above with a progress callback answered at once (${c.progressCalls} calls)`],
       ],
     );
-    info(`one timed run each, in turn in one page, after a warm-up round on ${basename(warm.path)}; parse = read the File in slices + parse + transfer the Dump back`);
+    info(`one timed run each, in turn in one page, after a warm-up round on ${basename(warm.path)}; parse = read the File in pieces + parse + transfer the Dump back`);
   }
   if ((await loadParser()) !== null) {
     try {
