@@ -84,7 +84,7 @@ export class DumpBuilder {
   // Change log: the hot slab being written, and the full ones parked. An entry is
   // `signal << 2 | state`, state 0, 1, 2 for the Logic codes 0, 1, x and 3 for any other (its code
   // then waits in `rare`, in log order); entries of other kinds have state 0. A slab is 16-bit
-  // when it was started while fewer than 16,384 signals existed, so every entry it holds fits.
+  // while every signal index fits 14 bits; adding signal 16,384 turns the hot slab 32-bit.
   // Every parked slab holds exactly `slab` entries, so log position p lies in parked slab
   // floor(p / slab).
   private logFill = 0;
@@ -199,6 +199,12 @@ export class DumpBuilder {
     this.uncounted = grown(this.uncounted, k + 1, (n) => new Int32Array(n));
     this.kinds[k] = kindCode(kind);
     this.words[k] = kind === 'vector' ? wordsFor(width) : 0;
+    if (k >= NARROW_SIGNALS && !this.wideSlab && this.capacity > 0) {
+      // Its index does not fit a 16-bit entry: the hot slab turns 32-bit where it stands.
+      this.entries32 = Uint32Array.from(this.entries16);
+      this.entries16 = EMPTY_U16;
+      this.wideSlab = true;
+    }
     return k;
   }
 
@@ -252,7 +258,7 @@ export class DumpBuilder {
       this.capacity = size;
       return len;
     }
-    const wide = this.sigs.length >= NARROW_SIGNALS;
+    const wide = this.sigs.length > NARROW_SIGNALS;
     if (len === 0) {
       if (wide) this.entries32 = new Uint32Array(this.firstSlab);
       else this.entries16 = new Uint16Array(this.firstSlab);

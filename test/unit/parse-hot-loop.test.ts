@@ -105,7 +105,7 @@ describe('change-log slabs (tiny slabs reach every boundary)', () => {
     for (const slabShift of [2, 3, 4]) expect(contents(parse(cut, 'whole', { slabShift }))).toEqual(contents(big));
   });
 
-  it('keep signal indexes beyond 16,383 once slabs switch to 32-bit entries', () => {
+  it('keep signal indexes beyond 16,383, also when signals are added in the middle of a 16-bit slab', () => {
     const b = new DumpBuilder('many.vcd', { slabShift: 3 });
     b.addSignal('logic', 1);
     b.setTime(0);
@@ -118,10 +118,13 @@ describe('change-log slabs (tiny slabs reach every boundary)', () => {
     }
     const d = b.finish(0, false);
     expect(d.signals[0].count).toBe(40);
-    expect(Array.from(d.signals[0].logic.subarray(18, 22))).toEqual([0, 1, 0, 1]);
-    expect(Array.from(d.signals[0].timeIndex.subarray(19, 21))).toEqual([0, 1]);
-    expect(d.signals[70_000].count).toBe(1);
-    expect(d.signals[69_981].count).toBe(1);
+    expect(Array.from(d.signals[0].logic)).toEqual(Array.from({ length: 40 }, (_, k) => k % 2));
+    expect(Array.from(d.signals[0].timeIndex)).toEqual(Array.from({ length: 40 }, (_, k) => (k < 20 ? 0 : 1)));
+    for (let k = 0; k < 20; k++) {
+      const s = d.signals[70_000 - k];
+      expect([s.count, s.timeIndex[0], s.logic[0]]).toEqual([1, 1, 1]);
+    }
     expect(d.signals[69_980].count).toBe(0);
+    expect(d.signals.reduce((n, s) => n + s.count, 0)).toBe(60);
   });
 });
