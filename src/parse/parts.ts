@@ -189,19 +189,19 @@ export function portPart(port: PartPort, onProgress: (bytes: number) => void = (
 }
 
 /**
- * Threads to read a file of `size` bytes with, on `cores` cores. Below 256 MiB one per two cores,
- * so the engine's own compiler and collector threads keep a core: on a 2-core machine two reading
- * threads measured no faster than one on 50–100 MB (npm run bench, section parse). From 256 MiB
- * one per core: there they measured 1.2–1.4× faster on the same machine. At most 4.
+ * Threads to read a file of `size` bytes with, on `cores` cores: one per two cores, at most 4, so
+ * the engine's own compiler and collector threads keep a core. On a 2-core machine two reading
+ * threads measured 0.9–1.1× one thread on 50–100 MB and 0.95–1.4× on 500 MB, with more memory
+ * (npm run bench, section parse), so 2 and 3 cores read in one piece. Files below
+ * PARTS_FROM_BYTES are always read in one piece.
  */
 export function readingThreads(size: number, cores: number): number {
-  const n = size >= ALL_CORES_FROM_BYTES ? cores : Math.floor(cores / 2);
-  return Math.max(1, Math.min(MAX_READING_THREADS, n));
+  if (size < PARTS_FROM_BYTES) return 1;
+  return Math.max(1, Math.min(MAX_READING_THREADS, Math.floor(cores / 2)));
 }
 
 /** Files smaller than this are read in one piece: starting threads would cost more than it saves. */
 export const PARTS_FROM_BYTES = 32 * 1024 * 1024;
-const ALL_CORES_FROM_BYTES = 256 * 1024 * 1024;
 export const MAX_READING_THREADS = 4;
 /** Bytes searched for a timestamp line after each cut's target. */
 export const CUT_WINDOW = 1024 * 1024;
