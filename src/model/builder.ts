@@ -34,10 +34,14 @@ const SLAB_SHIFT = 18;
 const NARROW_SIGNALS = 1 << 14;
 /** Entry state for a Logic code kept in the rare log (z and the VHDL states). */
 const RARE = 3;
+/** Entry state for a vector value of 0s and 1s only: the log holds its value plane alone. */
+const KNOWN = 1;
 const EMPTY_U8 = new Uint8Array(0);
 const EMPTY_U16 = new Uint16Array(0);
 const EMPTY_U32 = new Uint32Array(0);
 const EMPTY_F64 = new Float64Array(0);
+/** Shared by every signal without text values until assemble() gives it its own; never written. */
+const NO_TEXTS: Map<number, string> = new Map();
 
 /** A text value (string, or vector with states beyond 0/1/x/z) and its place in the time index. */
 export interface PlacedText {
@@ -83,7 +87,8 @@ export class DumpBuilder {
 
   // Change log: the hot slab being written, and the full ones parked. An entry is
   // `signal << 2 | state`, state 0, 1, 2 for the Logic codes 0, 1, x and 3 for any other (its code
-  // then waits in `rare`, in log order); entries of other kinds have state 0. A slab is 16-bit
+  // then waits in `rare`, in log order); vector entries have state KNOWN when the value has no x
+  // or z, other entries state 0. A slab is 16-bit
   // while every signal index fits 14 bits; adding signal 16,384 turns the hot slab 32-bit.
   // Every parked slab holds exactly `slab` entries, so log position p lies in parked slab
   // floor(p / slab).
@@ -134,7 +139,10 @@ export class DumpBuilder {
     const shift = options.slabShift ?? SLAB_SHIFT;
     this.slab = 2 ** shift;
     this.firstSlab = Math.max(1, Math.min(1 << 12, this.slab >> 2));
-    this.realSlabSize = Math.max(1, this.slab >> 2);
+    // Plane and real slabs are a quarter and an eighth of a log slab in words, so the hot ones the
+    // collector is left with after finish() stay small (each 256 KiB at full size).
+    this.planeSlabSize = Math.max(1, this.slab >> 2);
+    this.realSlabSize = Math.max(1, this.slab >> 3);
     this.timeShift = Math.max(1, shift - 6);
     this.timeSlab = 2 ** this.timeShift;
     this.timeMask = this.timeSlab - 1;
@@ -143,6 +151,7 @@ export class DumpBuilder {
   // Slab sizes (entries): the change log, its first slab (small dumps stay small), reals, timestamps.
   private readonly slab: number;
   private readonly firstSlab: number;
+  private readonly planeSlabSize: number;
   private readonly realSlabSize: number;
   private readonly timeShift: number;
   private readonly timeSlab: number;
@@ -190,7 +199,7 @@ export class DumpBuilder {
       logic: EMPTY_U8,
       planes: EMPTY_U32,
       reals: EMPTY_F64,
-      texts: new Map(),
+      texts: NO_TEXTS,
       written: 0,
     });
     this.kinds = grown(this.kinds, k + 1, (n) => new Uint8Array(n));
@@ -307,7 +316,7 @@ export class DumpBuilder {
       if (len > 0 && len < this.realSlabSize) this.realSlab = grown(this.realSlab, Math.min(this.realSlabSize, len * 4), (n) => new Float64Array(n));
       else {
         if (len > 0) this.parkedReals.park(this.realSlab, this.realFill * 8);
-        else this.realSlab = new Float64Array(this.firstSlab);
+        else this.realSlab = new Float64Array(Math.min(this.firstSlab, this.realSlabSize));
         this.realFill = 0;
       }
     }
@@ -318,12 +327,12 @@ export class DumpBuilder {
   private planeRoom(n: number): Uint32Array {
     if (this.planeFill + n > this.planeSlab.length) {
       const len = this.planeSlab.length;
-      if (len > 0 && len < this.slab && this.parkedPlanes.count === 0) {
-        this.planeSlab = grown(this.planeSlab, Math.max(this.planeFill + n, Math.min(this.slab, len * 4)), (m) => new Uint32Array(m));
+      if (len > 0 && len < this.planeSlabSize && this.parkedPlanes.count === 0) {
+        this.planeSlab = grown(this.planeSlab, Math.max(this.planeFill + n, Math.min(this.planeSlabSize, len * 4)), (m) => new Uint32Array(m));
         return this.planeSlab;
       }
       if (len > 0) this.parkedPlanes.park(this.planeSlab, this.planeFill * 4);
-      if (len < n || len === 0) this.planeSlab = new Uint32Array(Math.max(len === 0 ? this.firstSlab : this.slab, n));
+      if (len < n || len === 0) this.planeSlab = new Uint32Array(Math.max(len === 0 ? Math.min(this.firstSlab, this.planeSlabSize) : this.planeSlabSize, n));
       this.planeFill = 0;
     }
     return this.planeSlab;
@@ -334,26 +343,30 @@ export class DumpBuilder {
    * `text` is set only for values holding states beyond 0/1/x/z.
    */
   pushVector(index: number, value: Uint32Array, unknown: Uint32Array, text: string | null, counted = true): void {
-    this.append(index, 0, counted);
     const words = this.words[index];
-    const slab = this.planeRoom(2 * words);
+    let known = true;
+    for (let w = 0; w < words && known; w++) known = unknown[w] === 0;
+    // A value of 0s and 1s only logs its value plane (entry state KNOWN); the finished arrays
+    // start zeroed, so its unknown plane needs no writing.
+    this.append(index, known ? KNOWN : 0, counted);
+    const n = known ? words : 2 * words;
+    const slab = this.planeRoom(n);
     const at = this.planeFill;
-    for (let w = 0; w < words; w++) {
-      slab[at + w] = value[w];
-      slab[at + words + w] = unknown[w];
-    }
-    this.planeFill = at + 2 * words;
+    for (let w = 0; w < words; w++) slab[at + w] = value[w];
+    if (!known) for (let w = 0; w < words; w++) slab[at + words + w] = unknown[w];
+    this.planeFill = at + n;
     if (text !== null) this.texts.set(this.logLen - 1, text);
   }
 
   /** Vector of at most 32 bits, given as its two plane words. */
   pushVectorWord(index: number, value: number, unknown: number, text: string | null): void {
-    this.append(index, 0, true);
-    const slab = this.planeRoom(2);
+    const known = unknown === 0;
+    this.append(index, known ? KNOWN : 0, true);
+    const slab = this.planeRoom(known ? 1 : 2);
     const at = this.planeFill;
     slab[at] = value;
-    slab[at + 1] = unknown;
-    this.planeFill = at + 2;
+    if (!known) slab[at + 1] = unknown;
+    this.planeFill = at + (known ? 1 : 2);
     if (text !== null) this.texts.set(this.logLen - 1, text);
   }
 
@@ -401,7 +414,7 @@ export class DumpBuilder {
       this.texts.delete(pos);
       const kind = this.kinds[k];
       if (kind === KIND_REAL) this.realFill--;
-      else if (kind === KIND_VECTOR) this.planeFill -= 2 * this.words[k];
+      else if (kind === KIND_VECTOR) this.planeFill -= ((entry & 3) === KNOWN ? 1 : 2) * this.words[k];
     }
     // Reals and planes dropped here all lie in their hot slabs unless a step spans slabs,
     // which needs more than a million changes in one time step; clamp rather than misplace.
@@ -541,14 +554,15 @@ export class DumpBuilder {
           }
           else if (kind === KIND_VECTOR) {
             const w = stride[k];
-            if (planeAt + w > planeUsed) {
+            const logged = (entry & 3) === KNOWN ? w >> 1 : w;
+            if (planeAt + logged > planeUsed) {
               planeUsed = this.parkedPlanes.takeInto(planeSource++, planes) >> 2;
               planeAt = 0;
             }
             const at = curP[k];
-            for (let q = 0; q < w; q++) allP[at + q] = planes[planeAt + q];
+            for (let q = 0; q < logged; q++) allP[at + q] = planes[planeAt + q];
             curP[k] = at + w;
-            planeAt += w;
+            planeAt += logged;
           } else if (kind === KIND_REAL) {
             if (realAt === realUsed) {
               realUsed = this.parkedReals.takeInto(realSource++, reals) >> 3;
@@ -615,7 +629,11 @@ export class DumpBuilder {
       sig.planes = kind === KIND_VECTOR ? arrays.planes.subarray(startP[k], startP[k] + c * 2 * this.words[k]) : EMPTY_U32;
       sig.reals = kind === KIND_REAL ? arrays.reals.subarray(startR[k], startR[k] + c) : EMPTY_F64;
     }
-    for (const { signal, at, text } of texts) this.sigs[signal].texts.set(at - startT[signal], text);
+    for (const { signal, at, text } of texts) {
+      const sig = this.sigs[signal];
+      if (sig.texts === NO_TEXTS) sig.texts = new Map();
+      sig.texts.set(at - startT[signal], text);
+    }
     return {
       source: this.source,
       date: this.date,

@@ -97,7 +97,7 @@ describe('change-log slabs (tiny slabs reach every boundary)', () => {
   it('drop a cut-off last step that spans several slabs', () => {
     const head = '$timescale 1ns $end\n$var wire 1 ! a $end\n$var wire 40 " v [39:0] $end\n$var real 64 # r $end\n$enddefinitions $end\n';
     let body = '#0\n0!\nb0 "\nr0 #\n#5\n';
-    for (let k = 0; k < 30; k++) body += `${"01z"[k % 3]}!\nb${k.toString(2)} "\nr${k} #\n`;
+    for (let k = 0; k < 30; k++) body += `${"01z"[k % 3]}!\nb${k % 4 === 3 ? 'x' : ''}${k.toString(2)} "\nr${k} #\n`;
     const cut = head + body + '1!\nb1'; // ends mid-value
     const big = parse(cut, 'whole');
     expect(big.truncated).toBe(true);
