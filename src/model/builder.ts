@@ -444,10 +444,11 @@ export class DumpBuilder {
   finish(bytes: number, truncated: boolean): Dump {
     const n = this.sigs.length;
     const layout = planLayout(this.kinds, this.words, n, [this.partTotals()]);
-    const arrays = allocateArrays(layout, this.options.shared === true);
-    const texts = this.scatterInto(arrays, layout.parts[0]);
+    // Timestamps first: their log goes before the scatter touches the arrays' pages.
     const times = new Float64Array(allocateBuffer(layout.timeCount * 8, this.options.shared === true));
     this.timesInto(times, 0, 0);
+    const arrays = allocateArrays(layout, this.options.shared === true);
+    const texts = this.scatterInto(arrays, layout.parts[0]);
     return this.assemble(layout, arrays, texts, times, {
       changes: layout.regions.written.reduce((a, b) => a + b, 0),
       bytes,

@@ -94,9 +94,10 @@ export class PartReader {
 
   place(arrays: DumpArrays, placement: PartPlacement): PartPlaced {
     const b = this.parser.builder;
-    const texts = b.scatterInto(arrays, placement);
+    // Timestamps first: their log goes before the scatter touches the arrays' pages.
     const times = new Float64Array(b.partTotals().timeCount);
     b.timesInto(times, 0, 0);
+    const texts = b.scatterInto(arrays, placement);
     return { texts, times };
   }
 }
@@ -336,9 +337,9 @@ async function join(first: VcdParser, others: PartHandle[], bytes: number, share
   const arrays = allocateArrays(layout, shared);
   // Every part places its changes at once; the first in this thread meanwhile.
   const placing = Promise.all(others.map((p, j) => p.place(arrays, layout.parts[j + 1])));
-  const texts = b.scatterInto(arrays, layout.parts[0]);
   const times = new Float64Array(allocateBuffer(layout.timeCount * 8, shared));
   b.timesInto(times, 0, 0);
+  const texts = b.scatterInto(arrays, layout.parts[0]);
   const placed = await placing;
   placed.forEach((p, j) => {
     const place = layout.parts[j + 1];
