@@ -201,30 +201,6 @@ export class VcdParser {
         this.appendCarry(chunk, start, n);
         break;
       }
-      // Hot path: a scalar change `0!` of a 1-bit net.
-      const c0 = chunk[start];
-      const scalar = SCALAR[c0];
-      if (scalar >= 0 && this.mode === Mode.Body && this.pendingKind === 0 && this.block < BodyBlock.Comment && i - start > 1) {
-        const sig = this.codes.lookup(chunk, start + 1, i);
-        if (sig >= 0 && this.hotKinds[sig] === HotKind.Logic) {
-          this.b.pushLogic(sig, scalar);
-          continue;
-        }
-      }
-      // Hot path: `b<digits> <code>` with both tokens in this chunk, one space apart, is handled
-      // in place, without holding the digits across tokens.
-      if ((c0 === 98 || c0 === 66) && this.mode === Mode.Body && this.pendingKind === 0 && this.block < BodyBlock.Comment && i + 1 < n && chunk[i] === 32 && chunk[i + 1] > 32) {
-        let e2 = i + 1;
-        while (e2 < n && chunk[e2] > 32) e2++;
-        if (e2 < n && start + 1 < i) {
-          // Errors about the value point at the value, errors about the code at the code.
-          this.notePending();
-          this.tokenOffset = base + i + 1;
-          this.vectorChange(chunk, start + 1, i, i + 1, e2);
-          i = e2;
-          continue;
-        }
-      }
       this.token(chunk, start, i);
     }
     this.base += n;
