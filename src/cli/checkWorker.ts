@@ -5,7 +5,7 @@
 // for --jobs 1.
 
 import { createHash } from 'node:crypto';
-import { closeSync, createReadStream, openSync, readSync } from 'node:fs';
+import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
@@ -15,6 +15,7 @@ import { runPlan } from '../plan/run';
 import type { Plan } from '../plan/types';
 import type { Dump } from '../model/dump';
 import { VcdParser } from '../parse/vcd';
+import { forEachPiece } from './filePieces';
 import { type ReadDumpOptions, finishDump, isGzip, readDumpFile } from './readDump';
 
 export interface CheckTask {
@@ -45,14 +46,6 @@ export function sha256File(path: string): Promise<string> {
   });
 }
 
-/**
- * Read piece: small enough that the hash and the parser both find it in the CPU cache, and one per
- * thread, reused for every dump (the parser copies a token cut at a piece's end and keeps no view
- * of a piece), so reading allocates nothing per dump.
- */
-const PIECE = 1 << 20;
-let piece: Uint8Array | null = null;
-
 /** Parses and hashes a dump in one read; a gzipped dump or anything not a plain file goes through readDumpFile. */
 async function readHashed(file: string, options: ReadDumpOptions): Promise<{ dump: Dump; sha256: string }> {
   if (!(await stat(file)).isFile() || (await isGzip(file))) {
@@ -64,17 +57,10 @@ async function readHashed(file: string, options: ReadDumpOptions): Promise<{ dum
   }
   const parser = new VcdParser(basename(file));
   const hash = createHash('sha256');
-  const buf = (piece ??= new Uint8Array(PIECE));
-  const fd = openSync(file, 'r');
-  try {
-    for (let n = readSync(fd, buf, 0, PIECE, null); n > 0; n = readSync(fd, buf, 0, PIECE, null)) {
-      const bytes = n === PIECE ? buf : buf.subarray(0, n);
-      hash.update(bytes);
-      parser.push(bytes);
-    }
-  } finally {
-    closeSync(fd);
-  }
+  forEachPiece(file, (bytes) => {
+    hash.update(bytes);
+    parser.push(bytes);
+  });
   return { dump: finishDump(parser, options), sha256: hash.digest('hex') };
 }
 

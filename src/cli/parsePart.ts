@@ -3,9 +3,10 @@
 // its input and to place its changes in the shared arrays. Built as its own entry
 // (dist/cli/parsePart.js) and started by readParts.ts.
 
-import { closeSync, openSync, readSync } from 'node:fs';
+import { closeSync, openSync } from 'node:fs';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { PartReader, servePart } from '../parse/parts';
+import { forEachPiece, readAt } from './filePieces';
 
 /** Marks the worker's workerData so a stray import never starts serving. */
 export const PART_ROLE = 'midrail-parse-part';
@@ -21,40 +22,20 @@ export interface PartJob {
   end: number;
 }
 
-/** Bytes read per piece from a plain file into one reused buffer. */
-export const READ_PIECE = 4 * 1024 * 1024;
-
-/** Reads buf.length bytes at `position` (fewer only at the end of the file); returns how many. */
-export function readAt(fd: number, buf: Uint8Array, position: number): number {
-  let n = 0;
-  while (n < buf.length) {
-    const got = readSync(fd, buf, n, buf.length - n, position + n);
-    if (got === 0) break;
-    n += got;
-  }
-  return n;
-}
-
 async function serve(job: PartJob): Promise<void> {
   const port = parentPort!;
   const answer = await servePart(
     async () => {
+      const header = new Uint8Array(job.headerEnd);
       const fd = openSync(job.path, 'r');
       try {
-        const header = new Uint8Array(job.headerEnd);
         readAt(fd, header, 0);
-        const reader = new PartReader(job.source, header, job.start);
-        const piece = new Uint8Array(Math.min(READ_PIECE, job.end - job.start));
-        for (let at = job.start; at < job.end; ) {
-          const n = readAt(fd, piece.subarray(0, Math.min(piece.length, job.end - at)), at);
-          if (n === 0) break;
-          reader.push(piece.subarray(0, n));
-          at += n;
-        }
-        return reader;
       } finally {
         closeSync(fd);
       }
+      const reader = new PartReader(job.source, header, job.start);
+      forEachPiece(job.path, (bytes) => reader.push(bytes), job.start, job.end);
+      return reader;
     },
     (reply, transfer) => port.postMessage(reply, transfer ?? []),
   );

@@ -2,7 +2,7 @@
 // `.vcd.gz` (recognised by its magic bytes, whatever the name). A big plain file is read by
 // several threads at once (readParts.ts) where the machine has the cores.
 
-import { closeSync, createReadStream, openSync } from 'node:fs';
+import { createReadStream } from 'node:fs';
 import { open, stat } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
 import { basename } from 'node:path';
@@ -10,7 +10,7 @@ import { createGunzip } from 'node:zlib';
 import type { Dump } from '../model/dump';
 import { VcdParser } from '../parse/vcd';
 import { MAX_READING_THREADS, PARTS_FROM_BYTES, readingThreads } from '../parse/parts';
-import { READ_PIECE, readAt } from './parsePart';
+import { forEachPiece } from './filePieces';
 import { partWorkerScript, readDumpInParts } from './readParts';
 import { UsageError } from './run';
 
@@ -34,7 +34,6 @@ function threadsFromEnvironment(): number | null {
 }
 
 const PIECE = 16 * 1024 * 1024;
-let readPiece: Uint8Array | null = null;
 
 export async function isGzip(path: string): Promise<boolean> {
   const fh = await open(path, 'r');
@@ -73,15 +72,7 @@ export async function readDumpFile(path: string, options: ReadDumpOptions = {}):
   }
   const parser = new VcdParser(basename(path));
   if (!gz) {
-    // One buffer, reused for every piece: the parser keeps no view of a piece (it copies a token
-    // cut by a piece's end), and fresh memory costs more to touch than the bytes cost to read.
-    const piece = (readPiece ??= new Uint8Array(READ_PIECE));
-    const fd = openSync(path, 'r');
-    try {
-      for (let at = 0, n = readAt(fd, piece, 0); n > 0; at += n, n = readAt(fd, piece, at)) parser.push(piece.subarray(0, n));
-    } finally {
-      closeSync(fd);
-    }
+    forEachPiece(path, (bytes) => parser.push(bytes));
     return finishDump(parser, options);
   }
   const raw = createReadStream(path, { highWaterMark: PIECE });

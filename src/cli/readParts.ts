@@ -9,7 +9,8 @@ import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Dump } from '../model/dump';
 import { type PartPort, type PartReply, portPart, readInParts } from '../parse/parts';
-import { PART_ROLE, type PartJob, READ_PIECE, readAt } from './parsePart';
+import { PIECE_BYTES, pieceBuffer, readAt } from './filePieces';
+import { PART_ROLE, type PartJob } from './parsePart';
 
 /**
  * dist/cli/parsePart.js beside the running CLI, or null when running from TypeScript source
@@ -45,7 +46,7 @@ function workerPort(script: string, job: PartJob): PartPort {
 export async function readDumpInParts(path: string, size: number, parts: number, script: string, onOnePiece: (why: string) => void): Promise<Dump | null> {
   const source = basename(path);
   const fd = openSync(path, 'r');
-  const buffer = new Uint8Array(READ_PIECE);
+  const buffer = pieceBuffer();
   let at = 0;
   try {
     const joined = await readInParts(
@@ -64,7 +65,7 @@ export async function readDumpInParts(path: string, size: number, parts: number,
         spawn: (range) => portPart(workerPort(script, { role: PART_ROLE, path, source, ...range })),
       },
       parts,
-      READ_PIECE,
+      PIECE_BYTES,
     );
     if (typeof joined === 'string') {
       onOnePiece(joined);
