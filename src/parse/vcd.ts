@@ -284,10 +284,10 @@ export class VcdParser {
         let v = 0;
         let plain = true;
         for (; de < n; de++) {
-          const ch = p[de];
-          if (ch === 48) v <<= 1;
-          else if (ch === 49) v = (v << 1) | 1;
-          else if (ch <= 32) break;
+          const d = p[de] - 48;
+          // One unsigned compare takes both 0 and 1; whitespace (≤ 32) ends the value.
+          if (d >>> 0 < 2) v = (v << 1) | d;
+          else if (d <= -16) break;
           else plain = false;
         }
         if (de + 1 >= n || p[de] !== 32 || p[de + 1] <= 32 || de === i + 1) break;
@@ -709,14 +709,10 @@ export class VcdParser {
     let u = 0;
     for (let k = s; k < e; k++) {
       const ch = buf[k];
-      // 0 and 1 first: nearly every digit of a real dump is one of them.
-      if (ch === 48) {
-        v <<= 1;
-        u <<= 1;
-        continue;
-      }
-      if (ch === 49) {
-        v = (v << 1) | 1;
+      // 0 and 1 first, in one unsigned compare: nearly every digit of a real dump is one of them.
+      const d = ch - 48;
+      if (d >>> 0 < 2) {
+        v = (v << 1) | d;
         u <<= 1;
         continue;
       }
