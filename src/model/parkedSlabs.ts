@@ -38,11 +38,18 @@ export class ParkedSlabs {
     return this.parked[i].byteLength;
   }
 
-  /** Copies parked slab i to the start of `into` and lets its memory go. Returns its byte length. */
-  takeInto(i: number, into: ArrayBufferView): number {
+  /** Copies parked slab i to the start of `into`, keeping it parked. Returns its byte length. */
+  copyInto(i: number, into: ArrayBufferView): number {
     const buffer = this.parked[i];
     const n = buffer.byteLength;
     bytesOf(into, n).set(new Uint8Array(buffer));
+    return n;
+  }
+
+  /** Copies parked slab i to the start of `into` and lets its memory go. Returns its byte length. */
+  takeInto(i: number, into: ArrayBufferView): number {
+    const buffer = this.parked[i];
+    const n = this.copyInto(i, into);
     if (buffer.resizable && buffer.resize) buffer.resize(0);
     this.parked[i] = EMPTY;
     return n;
