@@ -4,7 +4,7 @@
 // width still lights at least one full column. Runs of adjacent dense columns merge into one
 // span. Work per frame is O(columns · log changes): changes are never walked one by one.
 
-import type { Dump, Signal } from '../model/dump';
+import type { Dump } from '../model/dump';
 import { changeInEffectAt } from '../model/lookup';
 import { type AnalogSummary, type StepSummary, classMask, valueRange } from './summary';
 
@@ -55,29 +55,97 @@ export class Spans {
   }
 }
 
-/** First k in [lo, n) whose change falls in a column after `col` (n if none); galloping from lo. */
-function firstAfterColumn(dump: Dump, sig: Signal, lo: number, col: number, w: Window): number {
-  const times = dump.times;
-  const idx = sig.timeIndex;
-  const n = sig.count;
-  const colOf = (k: number) => Math.floor((times[idx[k]] - w.t0) / w.tpp);
-  if (lo >= n || colOf(lo) > col) return lo;
-  // colOf(lo) <= col: gallop to bracket the answer in (a, b].
-  let a = lo;
-  let step = 1;
-  let b = lo + 1;
-  while (b < n && colOf(b) <= col) {
-    a = b;
-    step *= 2;
-    b = a + step;
+/**
+ * Where each pixel column starts in the dump's timestamp table: `first[c]` is the index of the
+ * first timestamp whose column (floor((t − t0) / tpp)) is c or later, for c in [0, width + 1].
+ * The column of a change then follows from its time index alone (column ≥ c exactly when its
+ * index ≥ first[c], since the column of a time never decreases as time grows), so the searches
+ * below compare integers and every lane of a frame shares one table, built in O(width · log T).
+ */
+export class ColumnStarts {
+  first = new Int32Array(0);
+  private times: Float64Array | null = null;
+  private t0 = NaN;
+  private tpp = NaN;
+  private width = -1;
+
+  /** The table for this dump's timestamps and this window (kept while both stay the same). */
+  for(dump: Dump, w: Window): Int32Array {
+    const times = dump.times;
+    if (times === this.times && w.t0 === this.t0 && w.tpp === this.tpp && w.width === this.width) return this.first;
+    const cols = Math.max(0, Math.ceil(w.width)) + 2;
+    if (this.first.length !== cols) this.first = new Int32Array(cols);
+    const T = times.length;
+    let lo = 0;
+    for (let c = 0; c < cols; c++) {
+      // First index in [lo, T) whose column is at least c (the answer never moves left).
+      let hi = T;
+      while (lo < hi) {
+        const m = (lo + hi) >>> 1;
+        if (Math.floor((times[m] - w.t0) / w.tpp) < c) lo = m + 1;
+        else hi = m;
+      }
+      this.first[c] = lo;
+    }
+    this.times = times;
+    this.t0 = w.t0;
+    this.tpp = w.tpp;
+    this.width = w.width;
+    return this.first;
   }
-  if (b > n) b = n;
-  // invariant: colOf(a) <= col, and b === n or colOf(b) > col
+}
+
+const shared = new ColumnStarts();
+
+/**
+ * Time index where the columns after `col` begin. A change before the window's end lies in a
+ * column of at most `width`, so col + 1 is in the table; should rounding ever say otherwise, the
+ * rest of the dump counts as one column, off screen, rather than reading past the table.
+ */
+function limitAfter(first: Int32Array, col: number, timeCount: number): number {
+  return col + 1 < first.length ? first[col + 1] : timeCount;
+}
+
+/**
+ * First k in [lo, n) whose time index is at least `limit` (n if none): with limit = first[c + 1],
+ * the first change in a column after c. The search starts at lo + `guess` (how many changes the
+ * caller expects past lo: the last column's count, when zoomed out, is a close guess) and gallops
+ * outwards from there, so a column of m changes costs O(log |m − guess|) reads, not O(log m).
+ */
+function firstAtOrAfter(idx: Uint32Array, n: number, lo: number, limit: number, guess: number): number {
+  if (lo >= n || idx[lo] >= limit) return lo;
+  // Bracket the answer in (a, b]: idx[a] < limit, and b === n or idx[b] >= limit.
+  let a = lo;
+  let b = n;
+  const p = lo + (guess > 1 ? guess : 1);
+  if (p < n && idx[p] >= limit) {
+    // Past it: step back from p by doubling strides.
+    b = p;
+    for (let step = 1; p - step > a; step *= 2) {
+      const q = p - step;
+      if (idx[q] < limit) {
+        a = q;
+        break;
+      }
+      b = q;
+    }
+  } else {
+    if (p < n) a = p;
+    // Not there yet: step forward by doubling strides.
+    for (let step = 1; a + step < n; step *= 2) {
+      const q = a + step;
+      if (idx[q] >= limit) {
+        b = q;
+        break;
+      }
+      a = q;
+    }
+  }
   let l = a + 1;
   let h = b;
   while (l < h) {
     const m = (l + h) >>> 1;
-    if (colOf(m) <= col) l = m + 1;
+    if (idx[m] < limit) l = m + 1;
     else h = m;
   }
   return l;
@@ -99,17 +167,21 @@ export function decimateSteps(dump: Dump, s: StepSummary, w: Window, out: Spans)
   const idx = sig.timeIndex;
   const cls = s.classes;
   const tEnd = w.t0 + w.width * w.tpp;
+  const first = shared.for(dump, w);
   const i = changeInEffectAt(dump, sig, w.t0);
   let cur = i >= 0 ? cls[i] : NONE;
   let curIndex = i;
   let x = 0;
   let j = i + 1;
+  // Changes in the last column searched: the guess for the next one.
+  let perColumn = 1;
   while (j < n) {
     const tj = times[idx[j]];
     if (tj >= tEnd) break;
     const xj = (tj - w.t0) / w.tpp;
     const col = Math.floor(xj);
-    const k = firstAfterColumn(dump, sig, j + 1, col, w);
+    const k = firstAtOrAfter(idx, n, j + 1, limitAfter(first, col, times.length), perColumn - 1);
+    perColumn = k - j;
     if (k === j + 1) {
       out.push(x, xj, cur, curIndex, 0);
       x = xj;
@@ -120,7 +192,7 @@ export function decimateSteps(dump: Dump, s: StepSummary, w: Window, out: Spans)
     }
     // Two or more changes in this column: a dense run starts here.
     out.push(x, col, cur, curIndex, 0);
-    let mask = (cur === NONE ? 0 : 1 << cur) | classMask(s, j, k);
+    const runFirst = j;
     const d0 = Math.max(col, x);
     let d1 = col + 1;
     j = k;
@@ -129,12 +201,14 @@ export function decimateSteps(dump: Dump, s: StepSummary, w: Window, out: Spans)
       if (t >= tEnd) break;
       const c = Math.floor((t - w.t0) / w.tpp);
       if (c !== d1) break;
-      const k2 = firstAfterColumn(dump, sig, j + 1, c, w);
+      const k2 = firstAtOrAfter(idx, n, j + 1, limitAfter(first, c, times.length), perColumn - 1);
+      perColumn = k2 - j;
       if (k2 === j + 1) break;
-      mask |= classMask(s, j, k2);
       d1 = c + 1;
       j = k2;
     }
+    // The run's classes in one query over all its changes, not one per column.
+    const mask = (cur === NONE ? 0 : 1 << cur) | classMask(s, runFirst, j);
     cur = cls[j - 1];
     curIndex = j - 1;
     out.push(d0, d1, DENSE, -1, mask);
@@ -196,6 +270,8 @@ export function decimateAnalog(dump: Dump, s: AnalogSummary, w: Window, out: Tra
   const reals = sig.reals;
   const ramp = s.sampleTicks;
   const tEnd = w.t0 + w.width * w.tpp;
+  const first = shared.for(dump, w);
+  let perColumn = 1;
   const range: [number, number] = [0, 0];
   let lastK = -2;
   let lastT = Number.NaN;
@@ -220,7 +296,8 @@ export function decimateAnalog(dump: Dump, s: AnalogSummary, w: Window, out: Tra
     const tj = times[idx[j]];
     if (tj >= tEnd) break;
     const col = Math.floor((tj - w.t0) / w.tpp);
-    const k = firstAfterColumn(dump, sig, j + 1, col, w);
+    const k = firstAtOrAfter(idx, n, j + 1, limitAfter(first, col, times.length), perColumn - 1);
+    perColumn = k - j;
     sample(j);
     if (k > j + 1) {
       // Many samples in one column: a bar from their lowest to highest, then the last one.

@@ -10,7 +10,7 @@
 
 import type { Body } from './paint';
 import { Z } from './paint';
-import { hatch } from './pen';
+import { type Bucket, hatch } from './pen';
 import type { MarkerContext, MarkerLayer } from './stage';
 import type { ThemeName } from './theme';
 
@@ -29,12 +29,27 @@ export const MARK_COLORS: Record<ThemeName, MarkPalette> = {
   slate: { rise: 0x4fd2ae, fall: 0xee92c6, change: 0xb8c0d0, band: 0x74c0f0, problem: 0xff8a4c, ink: 0xe2e7f0, focus: 0x74c0f0 },
 };
 
-/** First index i in [lo, hi) with a[i] >= x (hi when none). */
+/**
+ * First index i in [lo, hi) with a[i] >= x (hi when none). It gallops from lo before halving, so
+ * stepping along a sorted array from one mark to the next a few pixels on costs O(log distance),
+ * not O(log n): a frame's walk over the visible marks stays cheap however many there are.
+ */
 export function lowerBound(a: ArrayLike<number>, x: number, lo = 0, hi = a.length): number {
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
+  if (lo >= hi || a[lo] >= x) return lo;
+  // a[lo] < x: gallop to bracket the answer in (lo, top].
+  let step = 1;
+  let top = lo + 1;
+  while (top < hi && a[top] < x) {
+    lo = top;
+    step *= 2;
+    top = lo + step;
+  }
+  if (top > hi) top = hi;
+  lo++;
+  while (lo < top) {
+    const mid = (lo + top) >>> 1;
     if (a[mid] < x) lo = mid + 1;
-    else hi = mid;
+    else top = mid;
   }
   return lo;
 }
@@ -269,11 +284,28 @@ export class SkewLayer implements MarkerLayer {
   }
 }
 
+/** The buckets a glitch run is drawn into. */
+interface GlitchInk {
+  block: Bucket;
+  flag: Bucket;
+  rim: Bucket;
+}
+
+/** Columns kept left and right of the canvas, so runs reaching past its edges keep their rims off screen. */
+const PAD = 8;
+/** Runs wider than this (px) are tinted in a strip WIDE_TINT px tall along the lane's top. */
+const WIDE_RUN = 24;
+const WIDE_TINT = 4;
+
 export interface GlitchMarks {
   items: MarkItems;
-  /** Glitch indices grouped by target (CSR) and each group in time order. */
+  /**
+   * Start and end ticks of the glitches grouped by target (CSR): target t's are at
+   * [targetStart[t], targetStart[t + 1]) in time order.
+   */
   targetStart: Int32Array;
-  byTarget: Int32Array;
+  start: Float64Array;
+  end: Float64Array;
   /** The lanes on screen and the targets (nets or bits) each shows. */
   rows(): Array<{ key: string; targets: number[] }>;
   focus: number;
@@ -286,6 +318,9 @@ export class GlitchLayer implements MarkerLayer {
   readonly stats: LayerStats = { drawn: 0, visited: 0 };
   onDrawn: ((stats: LayerStats) => void) | null = null;
 
+  /** Per column of one lane, the way to the next column its marks do not cover (see paint). */
+  private free = new Int32Array(0);
+
   constructor(private readonly theme: () => ThemeName) {}
 
   draw(ctx: MarkerContext): void {
@@ -296,60 +331,94 @@ export class GlitchLayer implements MarkerLayer {
     this.onDrawn?.(this.stats);
   }
 
+  /**
+   * One run of glitch marks on a lane: a tinted block, a rim at each end and a flag above,
+   * pointing down at it. A run wider than WIDE_RUN px is tinted along the lane's top edge only,
+   * so the trace under it stays readable and a lane full of glitches is not a lane-wide fill.
+   */
+  private glitchRun(ink: GlitchInk, b: Body, runL: number, runR: number): void {
+    const tint = runR - runL > WIDE_RUN ? Math.min(WIDE_TINT, b.bottom - b.top) : b.bottom - b.top;
+    ink.block.rect(runL, b.top, runR - runL, tint);
+    ink.rim.seg(runL + 0.5, b.top, runL + 0.5, b.bottom);
+    ink.rim.seg(runR - 0.5, b.top, runR - 0.5, b.bottom);
+    const flag = ink.flag;
+    const cx = Math.floor((runL + runR) / 2);
+    for (let k = 0; k < 4; k++) flag.rect(cx - 3 + k, b.top - 7 + k, 7 - 2 * k, 1);
+    this.stats.drawn++;
+  }
+
   private paint(ctx: MarkerContext, d: GlitchMarks): void {
     const pal = MARK_COLORS[this.theme()];
     const it = d.items;
     const t1 = ctx.t0 + ctx.tpp * ctx.width;
-    const block = ctx.pen.rects(Z.fill, pal.problem, 0.3);
-    const flag = ctx.pen.rects(Z.marker, pal.problem);
-    const rim = ctx.pen.lines(Z.marker, pal.problem);
+    const ink: GlitchInk = {
+      block: ctx.pen.rects(Z.fill, pal.problem, 0.3),
+      flag: ctx.pen.rects(Z.marker, pal.problem),
+      rim: ctx.pen.lines(Z.marker, pal.problem),
+    };
+    // Columns a lane's marks cover, from PAD px left of the canvas to PAD right. The union does
+    // not depend on the order the marks come in, so the bits of a vector lane need no sorting.
+    // free[c] leads to the first column at or after c not covered yet (c itself when c is not
+    // covered; column `cols` never is), with paths halved as they are followed: a bit's walk
+    // jumps over what earlier bits covered, so a lane costs about its columns plus its marks,
+    // not its bits times its columns.
+    const cols = Math.max(0, Math.ceil(ctx.width)) + 2 * PAD;
+    const { t0, tpp } = ctx;
+    const starts = d.start;
+    const ends = d.end;
+    let visited = 0;
+    if (this.free.length < cols + 1) this.free = new Int32Array(cols + 1);
+    const free = this.free;
+    const firstFree = (c: number): number => {
+      while (free[c] !== c) {
+        const up = free[free[c]];
+        free[c] = up;
+        c = up;
+      }
+      return c;
+    };
     for (const row of d.rows()) {
       const b = ctx.body(row.key);
       if (!b) continue;
-      // Per lane, one flag per pixel column: a vector lane gathers the glitches of all its bits.
-      const xs: number[] = [];
+      for (let c = 0; c <= cols; c++) free[c] = c;
+      let marks = 0;
       for (const t of row.targets) {
         const lo = d.targetStart[t];
         const hi = d.targetStart[t + 1];
-        let j = lowerBoundVia(it.end, d.byTarget, ctx.t0, lo, hi);
-        while (j < hi && it.start[d.byTarget[j]] <= t1) {
-          this.stats.visited++;
-          const i = d.byTarget[j];
-          const a = ctx.xOf(it.start[i]);
-          const e = ctx.xOf(it.end[i]);
-          xs.push(a, e);
-          j = lowerBoundVia(it.end, d.byTarget, ctx.t0 + (Math.max(a, e) + 3) * ctx.tpp, j + 1, hi);
+        let j = lowerBound(ends, t0, lo, hi);
+        while (j < hi && starts[j] <= t1) {
+          visited++;
+          // A mark covers its glitch plus a pixel each side, and at least 3 px.
+          const l = Math.floor((starts[j] - t0) / tpp) - 1;
+          const r = Math.max(l + 3, Math.ceil((ends[j] - t0) / tpp) + 1);
+          const cr = Math.min(cols, r + PAD);
+          for (let c = firstFree(Math.max(0, l + PAD)); c < cr; c = firstFree(c + 1)) free[c] = c + 1;
+          marks++;
+          // Glitches ending in covered columns start in them too (a bit's pulses never overlap):
+          // they share the marks there. Go on from the first column not covered yet.
+          const c = firstFree(cr);
+          if (c >= cols) break;
+          j = lowerBound(ends, t0 + (c - PAD) * tpp, j + 1, hi);
         }
       }
-      if (xs.length === 0) continue;
-      const order = xs.length > 2 ? [...Array(xs.length / 2).keys()].sort((p, q) => xs[2 * p] - xs[2 * q]) : [0];
-      // Marks closer than a few pixels merge into one run: one block, its two rims and one flag,
-      // so a lane crowded with glitches costs a handful of shapes, and no glitch goes unmarked.
-      let runL = Infinity;
+      if (marks === 0) continue;
+      // Runs: covered columns, with gaps under 3 px closed, so a lane crowded with glitches costs
+      // a handful of shapes, and no glitch goes unmarked.
+      let runL = 0;
       let runR = -Infinity;
-      const flush = () => {
-        if (runL === Infinity) return;
-        block.rect(runL, b.top, runR - runL, b.bottom - b.top);
-        rim.seg(runL + 0.5, b.top, runL + 0.5, b.bottom);
-        rim.seg(runR - 0.5, b.top, runR - 0.5, b.bottom);
-        // A flag above the trace, pointing down at the run.
-        const cx = Math.floor((runL + runR) / 2);
-        for (let k = 0; k < 4; k++) flag.rect(cx - 3 + k, b.top - 7 + k, 7 - 2 * k, 1);
-      };
-      for (const p of order) {
-        const l = Math.floor(xs[2 * p]) - 1;
-        const r = Math.max(l + 3, Math.ceil(xs[2 * p + 1]) + 1);
-        if (l - runR < 3) {
-          runR = Math.max(runR, r);
-          continue;
+      for (let c = 0; c < cols; c++) {
+        if (free[c] === c) continue;
+        const x = c - PAD;
+        if (x - runR >= 3) {
+          if (runR > -Infinity) this.glitchRun(ink, b, runL, runR);
+          runL = x;
         }
-        flush();
-        this.stats.drawn++;
-        runL = l;
-        runR = r;
+        c = firstFree(c);
+        runR = c - PAD;
       }
-      flush();
+      if (runR > -Infinity) this.glitchRun(ink, b, runL, runR);
     }
+    this.stats.visited += visited;
     if (d.focus >= 0 && d.focus < it.count) {
       const xs = ctx.xOf(it.start[d.focus]);
       const xe = ctx.xOf(it.end[d.focus]);

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { DumpBuilder } from '../../src/model/builder';
 import type { Dump, Signal } from '../../src/model/dump';
 import { Logic } from '../../src/model/dump';
-import { DENSE, Spans, Trace, type Window, decimateAnalog, decimateSteps } from '../../src/render/decimate';
+import { ColumnStarts, DENSE, Spans, Trace, type Window, decimateAnalog, decimateSteps } from '../../src/render/decimate';
 import { Cls, type AnalogSummary, type StepSummary, classMask, summarizeSignal, valueRange } from '../../src/render/summary';
 
 /** Deterministic pseudo-random numbers (xorshift32), so failures reproduce. */
@@ -137,22 +137,65 @@ describe('decimateSteps', () => {
     }
   });
 
-  it('reads a number of change times that follows columns, not changes', () => {
-    // Count reads of dump.times: zoomed out over 1 000 000 changes on 100 columns.
+  it('reads a number of change times and time indexes that follows columns, not changes', () => {
+    // Count reads of dump.times and of the signal's time index: zoomed out over 1 000 000
+    // changes on 100 columns.
     const { dump, sig } = randomLogic(1_000_000, 4, 2);
     const s = summarizeSignal(sig, dump.times) as StepSummary;
     let reads = 0;
-    const counted = new Proxy(dump.times, {
-      get(target, prop) {
-        if (typeof prop === 'string' && /^\d+$/.test(prop)) reads++;
-        const v = Reflect.get(target, prop, target);
-        return typeof v === 'function' ? v.bind(target) : v;
-      },
-    });
-    const spied = { ...dump, times: counted as unknown as Float64Array };
-    decimateSteps(spied, s, { t0: 0, tpp: dump.endTick / 100, width: 100 }, new Spans());
-    // Galloping search: O(log n) reads per column; far below the 1 000 000 changes.
-    expect(reads).toBeLessThan(100 * 4 * Math.log2(1_000_000));
+    const counting = <T extends object>(array: T): T =>
+      new Proxy(array, {
+        get(target, prop) {
+          if (typeof prop === 'string' && /^\d+$/.test(prop)) reads++;
+          const v = Reflect.get(target, prop, target);
+          return typeof v === 'function' ? v.bind(target) : v;
+        },
+      });
+    const spied = { ...dump, times: counting(dump.times) };
+    const spiedSummary = { ...s, sig: { ...sig, timeIndex: counting(sig.timeIndex) } };
+    const spans = decimateSteps(spied, spiedSummary, { t0: 0, tpp: dump.endTick / 100, width: 100 }, new Spans());
+    expect(spans.n).toBeGreaterThan(0);
+    // Galloping searches: O(log n) reads per column; far below the 1 000 000 changes.
+    expect(reads).toBeLessThan(100 * 6 * Math.log2(1_000_000));
+  });
+
+  it('finds where each column starts in the timestamp table, as a walk over every timestamp does', () => {
+    const { dump } = randomLogic(5000, 7, 9);
+    const starts = new ColumnStarts();
+    const end = dump.endTick;
+    for (const width of [1, 37, 300]) {
+      for (const tpp of [0.3, 1, 7.5, end / width, end]) {
+        for (const t0 of [-50.5, 0, 13.7, end / 3, end + 10]) {
+          const w = { t0, tpp, width };
+          const first = starts.for(dump, w);
+          expect(first.length).toBe(width + 2);
+          for (let c = 0; c < first.length; c++) {
+            let want = dump.times.length;
+            for (let ti = 0; ti < dump.times.length; ti++) {
+              if (Math.floor((dump.times[ti] - t0) / tpp) >= c) {
+                want = ti;
+                break;
+              }
+            }
+            expect(first[c], `width ${width} tpp ${tpp} t0 ${t0} column ${c}`).toBe(want);
+          }
+        }
+      }
+    }
+  });
+
+  it('draws the right levels at a twentieth of a tick per pixel late in a long dump', () => {
+    // At 2^51 ticks a double steps by 0.5 tick, so window ends and column times round.
+    const base = 2 ** 51;
+    const { dump, sig } = logicDump([0, base, base + 3, base + 4, base + 9, base + 10], [Logic.L0, Logic.L1, Logic.L0, Logic.L1, Logic.L0, Logic.L1], base + 40);
+    const s = summarizeSignal(sig, dump.times) as StepSummary;
+    const w = { t0: base + 0.5, tpp: 0.05, width: 200 };
+    const spans = decimateSteps(dump, s, w, new Spans());
+    expect(spans.n).toBeGreaterThan(0);
+    for (let k = 1; k < spans.n; k++) expect(spans.x0[k]).toBeGreaterThanOrEqual(spans.x0[k - 1]);
+    // High from base (left of the window) until base + 3, at x = 2.5 / 0.05 = 50.
+    expect(drawnColumn(spans, 10)).toBe(1 << Cls.High);
+    expect(drawnColumn(spans, 60)).toBe(1 << Cls.Low);
   });
 });
 

@@ -108,6 +108,14 @@ describe('glitch scan in the viewer', () => {
     const first = view.byTarget[view.targetStart[t]];
     expect(view.items.time[first]).toBeCloseTo(ns(231.45), 15); // 230.9 ns + 0.55 ns
     expect(view.items.value[first]).toBeCloseTo(ns(0.6), 15);
+    // The canvas reads each target's glitches in order from startByTarget and endByTarget.
+    for (let j = 0; j < view.byTarget.length; j++) {
+      expect(view.startByTarget[j]).toBe(view.items.start[view.byTarget[j]]);
+      expect(view.endByTarget[j]).toBe(view.items.end[view.byTarget[j]]);
+    }
+    for (let k = 0; k < view.targets.length; k++) {
+      for (let j = view.targetStart[k] + 1; j < view.targetStart[k + 1]; j++) expect(view.endByTarget[j]).toBeGreaterThanOrEqual(view.endByTarget[j - 1]);
+    }
     // Narrower than 0.5 ns: only the 0.40 ns EEPROM glitch is left of these.
     const narrow = glitchRun(dump, { seconds: ns(0.5), source: 'given', clock: null, periodS: null }).view;
     const n = (path: string) => {

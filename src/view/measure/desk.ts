@@ -534,7 +534,8 @@ export class MeasureDesk {
       this.glitchLayer.data = {
         items: v.items,
         targetStart: v.targetStart,
-        byTarget: v.byTarget,
+        start: v.startByTarget,
+        end: v.endByTarget,
         rows: () => this.glitchRows(),
         focus: -1,
       };

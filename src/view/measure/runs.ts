@@ -210,6 +210,12 @@ export function glitchRun(dump: Dump, width: WidthChoice, level?: string): Glitc
   const fill = targetStart.slice(0, targets.length);
   const byTarget = new Int32Array(targetStart[targets.length]);
   for (let i = 0; i < n; i++) if (target[i] >= 0) byTarget[fill[target[i]]++] = i;
+  const startByTarget = new Float64Array(byTarget.length);
+  const endByTarget = new Float64Array(byTarget.length);
+  for (let j = 0; j < byTarget.length; j++) {
+    startByTarget[j] = items.start[byTarget[j]];
+    endByTarget[j] = items.end[byTarget[j]];
+  }
   const view: GlitchView = {
     kind: 'glitch-scan',
     width,
@@ -219,6 +225,8 @@ export function glitchRun(dump: Dump, width: WidthChoice, level?: string): Glitc
     items,
     targetStart,
     byTarget,
+    startByTarget,
+    endByTarget,
     elapsedMs: (typeof performance !== 'undefined' ? performance.now() : Date.now()) - began,
   };
   return { view, result };

@@ -118,6 +118,13 @@ export interface GlitchView {
   /** Glitch indices grouped by target (CSR): byTarget[targetStart[t] .. targetStart[t+1]) in time order. */
   targetStart: Int32Array;
   byTarget: Int32Array;
+  /**
+   * Start and end ticks of those glitches in the same order (startByTarget[j] is the start of
+   * glitch byTarget[j]): the canvas walks each lane's glitches in order, and reading them from
+   * one run of memory instead of through byTarget keeps that walk out of cache misses.
+   */
+  startByTarget: Float64Array;
+  endByTarget: Float64Array;
   elapsedMs: number;
 }
 
