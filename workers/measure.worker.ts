@@ -45,10 +45,19 @@ function buffersOf(v: unknown, out: Set<ArrayBuffer> = new Set()): ArrayBuffer[]
   return [...out];
 }
 
-/** A copy for the page with its arrays transferred; the worker keeps its own for sorting and export. */
-function send<T>(v: T): T {
-  const copy = structuredClone(v);
-  return Comlink.transfer(copy, buffersOf(copy));
+/**
+ * The reply carrying a view to the page, every array in it transferred, not copied. Comlink
+ * transfers what is listed for the value returned itself, so the list goes on the reply. The
+ * items are copied first (typed-array copies, not a structured clone): the worker keeps its own
+ * for sorting and export; nothing else in a view is kept here.
+ */
+function reply<V extends MeasureView | GlitchView>(view: V): { ok: true; view: V } {
+  const out = 'items' in view ? { ...view, items: copyItems(view.items) } : view;
+  return Comlink.transfer({ ok: true as const, view: out }, buffersOf(out));
+}
+
+function copyItems(it: Items): Items {
+  return { count: it.count, start: it.start.slice(), end: it.end.slice(), time: it.time.slice(), value: it.value.slice(), kind: it.kind.slice(), flags: it.flags.slice() };
 }
 
 function message(e: unknown): string {
@@ -82,7 +91,7 @@ const api = {
         kept.set(spec.id, { items: r.view.items, limits: r.view.limits, sheet: () => skewSheet(result) });
         view = r.view;
       } else view = verdictRun(d, spec, levels);
-      return { ok: true, view: send(view) };
+      return reply(view);
     } catch (e) {
       return { ok: false, error: message(e) };
     }
@@ -102,7 +111,7 @@ const api = {
       const r = glitchRun(d, choice, level);
       const result: GlitchResult = r.result;
       kept.set(GLITCH_SCAN_ID, { items: r.view.items, limits: { min: null, max: null, unit: 's' }, sheet: () => glitchSheet(result) });
-      return { ok: true, view: send(r.view) };
+      return reply(r.view);
     } catch (e) {
       return { ok: false, error: message(e) };
     }

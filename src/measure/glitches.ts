@@ -94,6 +94,31 @@ export class GlitchSink {
     this.fill = 0;
   }
 
+  /**
+   * Every glitch found, in one array per field (index = order found): for reading them all, as
+   * sorting and the viewer's item arrays do. Built on first call; push no more after it.
+   */
+  flat(): { tick: Float64Array; width: Float64Array; target: Int32Array; polarity: Uint8Array } {
+    const n = this.count;
+    if (this.flatCache?.tick.length === n) return this.flatCache;
+    const tick = new Float64Array(n);
+    const width = new Float64Array(n);
+    const target = new Int32Array(n);
+    const polarity = new Uint8Array(n);
+    for (let c = 0, at = 0; at < n; c++, at += CHUNK) {
+      const k = Math.min(CHUNK, n - at);
+      const chunk = this.chunks[c];
+      tick.set(chunk.t.subarray(0, k), at);
+      width.set(chunk.w.subarray(0, k), at);
+      target.set(chunk.g.subarray(0, k), at);
+      polarity.set(chunk.p.subarray(0, k), at);
+    }
+    this.flatCache = { tick, width, target, polarity };
+    return this.flatCache;
+  }
+
+  private flatCache: { tick: Float64Array; width: Float64Array; target: Int32Array; polarity: Uint8Array } | null = null;
+
   /** Start tick, width in ticks, target index and polarity code of glitch k (in the order found). */
   tick(k: number): number {
     return this.chunks[k >>> CHUNK_BITS].t[k & CHUNK_MASK];
@@ -204,7 +229,14 @@ export class PulseFinder implements BitEvents {
   }
 }
 
-export function findGlitches(dump: Dump, opts: GlitchOptions): GlitchResult {
+/** What one search found: the targets searched and their glitches, in the order found. */
+export interface GlitchScan {
+  targets: NetRef[];
+  sink: GlitchSink;
+}
+
+/** The search itself (see the top of this file); findGlitches wraps it into records. */
+export function scanGlitches(dump: Dump, opts: GlitchOptions): GlitchScan {
   if (!(opts.maxWidthS > 0)) throw new MeasureError(`the glitch width limit must be a positive time, not ${opts.maxWidthS}`);
   const ts = dump.timescale;
   const maxTicks = windowTicks(ts, opts.maxWidthS);
@@ -223,11 +255,21 @@ export function findGlitches(dump: Dump, opts: GlitchOptions): GlitchResult {
     else if (sig.kind === 'real') finder.feed(edgeList(dump, ref, { level: opts.level }), t);
     // Event and string nets have only `change` edges: no pulses, no unknown spans.
   }
+  return { targets, sink };
+}
+
+/** A search's result: its count now, its records and unknown spans listed on first read. */
+export function glitchResult(dump: Dump, scan: GlitchScan, opts: GlitchOptions): GlitchResult {
+  const { targets, sink } = scan;
   const result: GlitchResult = { max_width_s: opts.maxWidthS, nets: targets.length, count: sink.count, glitches: [], unknown_spans: [] };
-  lazyField(result, 'glitches', () => sortedGlitches(dump, sink, targets));
+  lazyField(result, 'glitches', () => sortedGlitches(dump, scan));
   // The search only notes where unknown spans begin; the spans themselves are listed on first read.
   lazyField(result, 'unknown_spans', () => targetSpans(dump, targets, opts.level));
   return result;
+}
+
+export function findGlitches(dump: Dump, opts: GlitchOptions): GlitchResult {
+  return glitchResult(dump, scanGlitches(dump, opts), opts);
 }
 
 /** The unknown spans of every target, in target order: bits of vectors in one pass per vector, edges not kept. */
@@ -244,66 +286,67 @@ function targetSpans(dump: Dump, targets: NetRef[], level: LevelSpec | undefined
   });
 }
 
+/** Whether a Float64Array's low 32-bit word comes first in memory. */
+const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+
 /**
- * The glitch records, sorted by time, then net name: the glitches of each target, found nearly in
- * time order, are put in order (a run-detecting sort, linear on sorted input), then the targets'
- * lists are merged through a heap keyed by (time, rank of the net name): O(g log T) for g glitches
- * on T targets.
+ * The order of a search's glitches by time, then net name, then the order found, as indices into
+ * its sink. Stable sorts in sequence: by the rank of the net name (counting sort), then by start
+ * tick, 16 bits a pass from the lowest (a non-negative double orders as its bit pattern does).
+ * Linear in the glitches: no comparisons, so a scan with a million glitches sorts in a few passes.
  */
-function sortedGlitches(dump: Dump, sink: GlitchSink, targets: NetRef[]): Glitch[] {
+export function glitchOrder({ targets, sink }: GlitchScan): Uint32Array {
   const T = targets.length;
-  const n = sink.count;
+  const { tick, target } = sink.flat();
+  const n = tick.length;
   const byName = targets.map((_, i) => i).sort((a, b) => (targets[a].label < targets[b].label ? -1 : targets[a].label > targets[b].label ? 1 : a - b));
   const rank = new Int32Array(T);
   byName.forEach((t, r) => (rank[t] = r));
-  // Stable counting sort by target, then each target's run by time (stable, so ties keep found order).
+  let order = new Uint32Array(n);
   const start = new Int32Array(T + 1);
-  for (let k = 0; k < n; k++) start[sink.target(k) + 1]++;
-  for (let t = 0; t < T; t++) start[t + 1] += start[t];
-  const fill = start.slice(0, T);
-  const order = new Uint32Array(n);
-  for (let k = 0; k < n; k++) order[fill[sink.target(k)]++] = k;
-  const tick = new Float64Array(n);
-  for (let k = 0; k < n; k++) tick[k] = sink.tick(k);
-  for (let t = 0; t < T; t++) {
-    const run = order.subarray(start[t], start[t + 1]);
-    let sorted = true;
-    for (let k = 1; k < run.length && sorted; k++) sorted = tick[run[k - 1]] <= tick[run[k]];
-    if (!sorted) run.set(Array.from(run).sort((x, y) => tick[x] - tick[y] || x - y));
+  for (let k = 0; k < n; k++) start[rank[target[k]] + 1]++;
+  for (let r = 0; r < T; r++) start[r + 1] += start[r];
+  for (let k = 0; k < n; k++) order[start[rank[target[k]]]++] = k;
+  let negative = false;
+  for (let k = 0; k < n && !negative; k++) negative = tick[k] < 0 || Object.is(tick[k], -0);
+  if (negative) {
+    // Not a dump's time (ticks count up from 0); keep the order right by comparing.
+    return Uint32Array.from(Array.from(order).sort((x, y) => tick[x] - tick[y]));
   }
-  // k-way merge: a heap of the targets with glitches left, keyed by the time of their next one.
-  const head = start.slice(0, T);
-  const heap = new Int32Array(T);
-  const key = new Float64Array(T); // time of each target's next glitch
-  let size = 0;
-  const before = (a: number, b: number) => key[a] < key[b] || (key[a] === key[b] && rank[a] < rank[b]);
-  const down = (i: number) => {
-    const t = heap[i];
-    for (;;) {
-      const l = 2 * i + 1;
-      if (l >= size) break;
-      const c = l + 1 < size && before(heap[l + 1], heap[l]) ? l + 1 : l;
-      if (!before(heap[c], t)) break;
-      heap[i] = heap[c];
-      i = c;
+  const words = new Uint32Array(tick.buffer, tick.byteOffset, 2 * n);
+  let next = new Uint32Array(n);
+  const count = new Int32Array(0x10001);
+  for (let pass = 0; pass < 4; pass++) {
+    const word = LITTLE_ENDIAN ? pass >> 1 : 1 - (pass >> 1);
+    const shift = (pass & 1) * 16;
+    count.fill(0);
+    for (let k = 0; k < n; k++) count[((words[2 * k + word] >>> shift) & 0xffff) + 1]++;
+    // A pass where every key has the same digit would leave the order as it is.
+    let same = false;
+    for (let d = 1; d <= 0x10000 && !same; d++) same = count[d] === n;
+    if (same) continue;
+    for (let d = 0; d < 0x10000; d++) count[d + 1] += count[d];
+    for (let i = 0; i < n; i++) {
+      const k = order[i];
+      next[count[(words[2 * k + word] >>> shift) & 0xffff]++] = k;
     }
-    heap[i] = t;
-  };
-  for (let t = 0; t < T; t++) {
-    if (start[t + 1] === start[t]) continue;
-    key[t] = tick[order[start[t]]];
-    heap[size++] = t;
+    const swap = order;
+    order = next;
+    next = swap;
   }
-  for (let i = (size >> 1) - 1; i >= 0; i--) down(i);
+  return order;
+}
+
+/** The glitch records, in glitchOrder. */
+function sortedGlitches(dump: Dump, scan: GlitchScan): Glitch[] {
+  const { targets, sink } = scan;
+  const order = glitchOrder(scan);
+  const { tick, width, target, polarity } = sink.flat();
   const s = secondsOf(dump.timescale);
-  const out: Glitch[] = new Array(n);
-  for (let k = 0; k < n; k++) {
-    const t = heap[0];
-    const g = order[head[t]++];
-    out[k] = { net: targets[t].label, start_s: s(tick[g]), width_s: s(sink.width(g)), polarity: POLARITIES[sink.polarity(g)] };
-    if (head[t] === start[t + 1]) heap[0] = heap[--size];
-    else key[t] = tick[order[head[t]]];
-    if (size > 0) down(0);
+  const out: Glitch[] = new Array(order.length);
+  for (let k = 0; k < order.length; k++) {
+    const g = order[k];
+    out[k] = { net: targets[target[g]].label, start_s: s(tick[g]), width_s: s(width[g]), polarity: POLARITIES[polarity[g]] };
   }
   return out;
 }

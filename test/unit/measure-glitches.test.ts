@@ -3,7 +3,7 @@
 // mesial to mesial, which for logic nets is the change time; from memory), and a net changing more
 // than once at one timestamp back to where it started is a zero-width glitch (common practice).
 import { describe, expect, it } from 'vitest';
-import { MeasureError, findGlitches } from '../../src/measure';
+import { GlitchSink, MeasureError, findGlitches, glitchOrder } from '../../src/measure';
 import { resolveNetList } from '../../src/model/netref';
 import { buildDump } from './measure-dumps';
 
@@ -70,5 +70,28 @@ describe('findGlitches', () => {
 
   it('rejects a zero or negative width', () => {
     expect(() => findGlitches(dump, { maxWidthS: 0 })).toThrow(MeasureError);
+  });
+});
+
+describe('glitch order', () => {
+  it('sorts by start time, then net name, then the order found, as a comparison sort does (ties, big ticks, equal names)', () => {
+    let seed = 2024;
+    const next = () => (seed = (seed * 1103515245 + 12345) >>> 0) / 2 ** 32;
+    for (let trial = 0; trial < 20; trial++) {
+      const T = 1 + Math.floor(next() * 30);
+      // Names repeat now and then (aliases of one net are separate targets with their own label).
+      const targets = Array.from({ length: T }, (_, t) => ({ net: {} as never, bit: null, label: `top.n${Math.floor(next() * T * 0.7)}` }));
+      const sink = new GlitchSink();
+      const n = Math.floor(next() * 9000);
+      // Ticks from a small set (many ties) and from up to 2^52 (every 16-bit digit matters).
+      const pool = Array.from({ length: 40 }, () => (next() < 0.5 ? Math.floor(next() * 100) : Math.floor(next() * 2 ** 52)));
+      for (let k = 0; k < n; k++) sink.push(next() < 0.7 ? pool[Math.floor(next() * pool.length)] : next() * 1e6, next() * 10, Math.floor(next() * T), Math.floor(next() * 4));
+      const order = glitchOrder({ targets, sink });
+      const { tick, target } = sink.flat();
+      const rankOf = (t: number) => targets.filter((o, i) => o.label < targets[t].label || (o.label === targets[t].label && i < t)).length;
+      const rank = targets.map((_, t) => rankOf(t));
+      const want = Array.from({ length: n }, (_, k) => k).sort((a, b) => tick[a] - tick[b] || rank[target[a]] - rank[target[b]] || a - b);
+      expect(Array.from(order), `trial ${trial}`).toEqual(want);
+    }
   });
 });

@@ -96,6 +96,21 @@ describe('glitch scan in the viewer', () => {
     expect(w.seconds).toBeCloseTo(ns(6), 15);
   });
 
+  it('holds exactly the engine records, in their order, whatever the width (built from the search arrays, not the records)', () => {
+    for (const width of [ns(0.5), ns(1), ns(5), ns(40)]) {
+      const { view, result } = glitchRun(dump, { seconds: width, source: 'given', clock: null, periodS: null });
+      expect(view.items.count).toBe(result.glitches.length);
+      expect(view.items.count).toBe(result.count);
+      result.glitches.forEach((g, i) => {
+        expect(view.targets[view.target[i]].label).toBe(g.net);
+        expect(view.items.time[i]).toBe(g.start_s);
+        expect(view.items.value[i]).toBe(g.width_s);
+        expect(['low', 'high', 'zero-width', 'runt'][view.items.kind[i]]).toBe(g.polarity);
+        expect((view.items.end[i] - view.items.start[i]) * 1e-12).toBeCloseTo(g.width_s, 18); // 1 ps ticks
+      });
+    }
+  });
+
   it('below 1 ns: the three flash-select hazards and the one EEPROM decode glitch (samples/README.md)', () => {
     const { view } = glitchRun(dump, { seconds: ns(1), source: 'given', clock: null, periodS: null });
     const on = (path: string) => {

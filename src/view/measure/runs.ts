@@ -11,11 +11,13 @@ import {
   type GlitchResult,
   type SkewResult,
   EdgeDir,
-  findGlitches,
-  glitchTargets,
+  glitchOrder,
+  glitchResult,
   measureDelay,
   measureSkew,
   pairListOf,
+  scanGlitches,
+  secondsOf,
   secondsToTicks,
   ticksToSeconds,
 } from '../../measure/index';
@@ -185,24 +187,30 @@ export interface GlitchRun {
 /** Glitches narrower than `width` on every loaded net and bit (the engine's default targets). */
 export function glitchRun(dump: Dump, width: WidthChoice, level?: string): GlitchRun {
   const began = typeof performance !== 'undefined' ? performance.now() : Date.now();
-  const result = findGlitches(dump, { maxWidthS: width.seconds, level: level === undefined ? undefined : parseLevel(level) });
-  const targets = glitchTargets(dump);
-  const byLabel = new Map(targets.map((t, i) => [t.label, i]));
-  const ts = dump.timescale;
-  const list = result.glitches;
-  const n = list.length;
+  const opts = { maxWidthS: width.seconds, level: level === undefined ? undefined : parseLevel(level) };
+  const scan = scanGlitches(dump, opts);
+  // Items straight from the search's typed arrays, in the records' order (time, then net name);
+  // the records themselves are built only if a sheet asks for them.
+  const result = glitchResult(dump, scan, opts);
+  const { targets, sink } = scan;
+  const order = glitchOrder(scan);
+  const seconds = secondsOf(dump.timescale);
+  const n = order.length;
   const items = emptyItems(n);
   const target = new Int32Array(n);
-  list.forEach((g, i) => {
-    const a = secondsToTicks(ts, g.start_s);
+  const found = sink.flat();
+  for (let i = 0; i < n; i++) {
+    const g = order[i];
+    const a = found.tick[g];
+    const w = found.width[g];
     items.start[i] = a;
-    items.end[i] = a + secondsToTicks(ts, g.width_s);
-    items.time[i] = g.start_s;
-    items.value[i] = g.width_s;
-    items.kind[i] = GLITCH_KINDS.indexOf(g.polarity);
+    items.end[i] = a + w;
+    items.time[i] = seconds(a);
+    items.value[i] = seconds(w);
+    items.kind[i] = found.polarity[g];
     items.flags[i] = 1;
-    target[i] = byLabel.get(g.net) ?? -1;
-  });
+    target[i] = found.target[g];
+  }
   // Glitch indices grouped by target, each group in time order (a counting sort keeps the order).
   const targetStart = new Int32Array(targets.length + 1);
   for (let i = 0; i < n; i++) if (target[i] >= 0) targetStart[target[i] + 1]++;
