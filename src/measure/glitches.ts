@@ -96,7 +96,7 @@ export class GlitchSink {
 
   /**
    * Every glitch found, in one array per field (index = order found): for reading them all, as
-   * sorting and the viewer's item arrays do. Built on first call; push no more after it.
+   * sorting and the viewer's item arrays do. Built on first call, and again if more were pushed.
    */
   flat(): { tick: Float64Array; width: Float64Array; target: Int32Array; polarity: Uint8Array } {
     const n = this.count;

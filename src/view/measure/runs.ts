@@ -213,11 +213,11 @@ export function glitchRun(dump: Dump, width: WidthChoice, level?: string): Glitc
   }
   // Glitch indices grouped by target, each group in time order (a counting sort keeps the order).
   const targetStart = new Int32Array(targets.length + 1);
-  for (let i = 0; i < n; i++) if (target[i] >= 0) targetStart[target[i] + 1]++;
+  for (let i = 0; i < n; i++) targetStart[target[i] + 1]++;
   for (let t = 0; t < targets.length; t++) targetStart[t + 1] += targetStart[t];
   const fill = targetStart.slice(0, targets.length);
   const byTarget = new Int32Array(targetStart[targets.length]);
-  for (let i = 0; i < n; i++) if (target[i] >= 0) byTarget[fill[target[i]]++] = i;
+  for (let i = 0; i < n; i++) byTarget[fill[target[i]]++] = i;
   const startByTarget = new Float64Array(byTarget.length);
   const endByTarget = new Float64Array(byTarget.length);
   for (let j = 0; j < byTarget.length; j++) {
